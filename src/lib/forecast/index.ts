@@ -1,0 +1,2 @@
+export * from "./poisson-gamma";
+export { gammaQuantile, logGamma, regularizedLowerGamma } from "./special-functions";
