@@ -1,0 +1,106 @@
+import type { IsoDate, ScheduledVisit } from "@/lib/protocol/visit-schedule";
+
+// Calendar dates as integer day numbers (days since 1970-01-01, proleptic Gregorian).
+// No Date objects and no time zones: a date string names a day at the site, nothing more.
+
+const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+function isLeapYear(y: number): boolean {
+  return (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+}
+
+function daysInMonth(y: number, m: number): number {
+  if (m === 2) return isLeapYear(y) ? 29 : 28;
+  return m === 4 || m === 6 || m === 9 || m === 11 ? 30 : 31;
+}
+
+// Days from civil date (H. Hinnant's algorithm, exact for every Gregorian date).
+function daysFromCivil(y: number, m: number, d: number): number {
+  const yy = m <= 2 ? y - 1 : y;
+  const era = Math.floor(yy / 400);
+  const yoe = yy - era * 400;
+  const doy = Math.floor((153 * (m + (m > 2 ? -3 : 9)) + 2) / 5) + d - 1;
+  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
+  return era * 146097 + doe - 719468;
+}
+
+function pad(n: number, width: number): string {
+  return String(n).padStart(width, "0");
+}
+
+export class InvalidCalendarDateError extends Error {
+  constructor(readonly value: unknown) {
+    super(`Not a calendar date as YYYY-MM-DD: ${JSON.stringify(value)}`);
+    this.name = "InvalidCalendarDateError";
+  }
+}
+
+/** True when `s` is a real calendar date written YYYY-MM-DD (2023-02-29 is not). */
+export function isCalendarDate(s: unknown): s is IsoDate {
+  if (typeof s !== "string") return false;
+  const m = ISO_DATE.exec(s);
+  if (!m) return false;
+  const y = Number(m[1]);
+  const mo = Number(m[2]);
+  const d = Number(m[3]);
+  return mo >= 1 && mo <= 12 && d >= 1 && d <= daysInMonth(y, mo);
+}
+
+/** Day number of an ISO date; throws on anything that is not a real date. */
+export function toDayNumber(date: IsoDate): number {
+  if (!isCalendarDate(date)) throw new InvalidCalendarDateError(date);
+  return daysFromCivil(Number(date.slice(0, 4)), Number(date.slice(5, 7)), Number(date.slice(8, 10)));
+}
+
+/** ISO date of a day number (inverse of toDayNumber). */
+export function fromDayNumber(day: number): IsoDate {
+  if (!Number.isSafeInteger(day)) throw new RangeError(`Day number must be an integer, got ${day}`);
+  const z = day + 719468;
+  const era = Math.floor(z / 146097);
+  const doe = z - era * 146097;
+  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365);
+  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
+  const mp = Math.floor((5 * doy + 2) / 153);
+  const d = doy - Math.floor((153 * mp + 2) / 5) + 1;
+  const m = mp < 10 ? mp + 3 : mp - 9;
+  const y = yoe + era * 400 + (m <= 2 ? 1 : 0);
+  if (y < 0 || y > 9999) throw new RangeError(`Date out of range for YYYY-MM-DD: year ${y}`);
+  return `${pad(y, 4)}-${pad(m, 2)}-${pad(d, 2)}`;
+}
+
+export function addCalendarDays(date: IsoDate, days: number): IsoDate {
+  return fromDayNumber(toDayNumber(date) + days);
+}
+
+/** later − earlier in calendar days (negative when `later` is before `earlier`). */
+export function calendarDaysBetween(earlier: IsoDate, later: IsoDate): number {
+  return toDayNumber(later) - toDayNumber(earlier);
+}
+
+export interface VisitWindow {
+  targetDate: IsoDate;
+  windowStart: IsoDate;
+  windowEnd: IsoDate;
+}
+
+type WindowRule = Pick<ScheduledVisit, "dayOffset" | "windowBefore" | "windowAfter">;
+
+/** Target = anchor + day offset; the window runs from target − before to target + after, both inclusive. */
+export function visitWindow(anchorDate: IsoDate, visit: WindowRule): VisitWindow {
+  const target = toDayNumber(anchorDate) + visit.dayOffset;
+  return {
+    targetDate: fromDayNumber(target),
+    windowStart: fromDayNumber(target - visit.windowBefore),
+    windowEnd: fromDayNumber(target + visit.windowAfter),
+  };
+}
+
+/**
+ * Days a date lies outside [start, end]: 0 inside, negative when early (days before the start),
+ * positive when late (days after the end).
+ */
+export function daysOutsideWindow(actualDay: number, startDay: number, endDay: number): number {
+  if (actualDay < startDay) return actualDay - startDay;
+  if (actualDay > endDay) return actualDay - endDay;
+  return 0;
+}
