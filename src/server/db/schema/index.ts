@@ -1,0 +1,7 @@
+// The schema, split by domain. Each later domain adds its file here.
+export * from "./enums";
+export * from "./people";
+export * from "./studies";
+export * from "./audit";
+export * from "./outbox";
+export * from "./documents";
