@@ -9,7 +9,7 @@ import { computeRedline, diffVisitSchedules, type WordPart } from "./redline";
 import { nodePlainText, topLevelBlocks } from "./plain-text";
 import { sanitizeProtocolDoc } from "./sanitize";
 import { blockSectionNumbers } from "./sections";
-import type { SummaryRow } from "./summary-of-changes";
+import { visitFieldLabels, type SummaryRow } from "./summary-of-changes";
 import type { ProtocolNode } from "./types";
 import type { ScheduledVisit } from "./visit-schedule";
 
@@ -302,7 +302,7 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
     for (const v of visits.added) changeRows.push([v.code, "Added", "", v.label]);
     for (const c of visits.changed)
       for (const f of c.fields)
-        changeRows.push([c.code, f.field, Array.isArray(f.before) ? f.before.join(", ") : String(f.before), Array.isArray(f.after) ? f.after.join(", ") : String(f.after)]);
+        changeRows.push([c.code, visitFieldLabels[f.field], Array.isArray(f.before) ? f.before.join(", ") : String(f.before), Array.isArray(f.after) ? f.after.join(", ") : String(f.after)]);
     if (changeRows.length === 1) pdf.font("regular").fontSize(10).text("No change to the schedule of visits.");
     else writeTable(pdf, changeRows, { header: true, size: 8.5 });
   }

@@ -40,7 +40,8 @@ function sectionName(section: string | null, title: string): string {
   return section ? `${section} ${title}`.trim() : "Front matter";
 }
 
-const fieldLabels: Record<VisitField, string> = {
+/** Plain words for the fields of a visit, as shown in tables. */
+export const visitFieldLabels: Record<VisitField, string> = {
   label: "label",
   anchor: "anchor",
   dayOffset: "day",
@@ -56,8 +57,8 @@ function describeVisit(v: ScheduledVisit): string {
 }
 
 function describeField(field: VisitField, value: unknown): string {
-  if (Array.isArray(value)) return `${fieldLabels[field]}: ${value.length ? value.join(", ") : "none"}`;
-  return `${fieldLabels[field]}: ${String(value)}`;
+  if (Array.isArray(value)) return `${visitFieldLabels[field]}: ${value.length ? value.join(", ") : "none"}`;
+  return `${visitFieldLabels[field]}: ${String(value)}`;
 }
 
 /** Prefilled rows: text changes grouped by section (order of the new version), then visit changes. */
