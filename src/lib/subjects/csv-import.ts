@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import type { IsoDate, VisitSchedule } from "@/lib/protocol/visit-schedule";
 import { isCalendarDate, toDayNumber } from "@/lib/visits/calendar-date";
-import { siteCodeSchema, subjectCodeSchemaForSite } from "./subject-code";
+import { siteCodeSchema, subjectCodeSchema, subjectCodeSchemaForSite } from "./subject-code";
 import { isSubjectStatus, subjectStatuses, type SubjectStatus } from "./subject-states";
 
 /*
@@ -178,8 +178,10 @@ export function parseSubjectImport(csv: string, options: SubjectImportOptions): 
 
     if (rowType === "visit") {
       for (const c of subjectOnlyColumns) if (get(c) !== "") fail(row, c, `Leave ${c} empty on a visit row`);
-      const subjectCode = get("subject_code");
-      if (subjectCode === "") fail(row, "subject_code", "subject_code is required");
+      const rawCode = get("subject_code");
+      if (rawCode === "") fail(row, "subject_code", "subject_code is required");
+      const parsedCode = subjectCodeSchema.safeParse(rawCode);
+      const subjectCode = parsedCode.success ? parsedCode.data : rawCode;
       const siteCode = get("site_code") || null;
       const visitCode = get("visit_code");
       if (visitCode === "") fail(row, "visit_code", "visit_code is required");
@@ -203,11 +205,12 @@ export function parseSubjectImport(csv: string, options: SubjectImportOptions): 
     const site = siteCodeSchema.safeParse(siteCode);
     if (!site.success) fail(row, "site_code", site.error.issues[0]?.message ?? "Invalid site code");
     else if (allowedSites && !allowedSites.has(site.data)) fail(row, "site_code", `Site ${site.data} is not one you may import into`);
-    const subjectCode = get("subject_code");
+    let subjectCode = get("subject_code");
     if (site.success) {
       const code = subjectCodeSchemaForSite(site.data).safeParse(subjectCode);
       if (!code.success) fail(row, "subject_code", code.error.issues[0]?.message ?? "Invalid subject code");
       else {
+        subjectCode = code.data;
         const earlier = subjects.get(subjectCode)?.row ?? rejectedSubjectRows.get(subjectCode);
         if (earlier !== undefined) fail(row, "subject_code", `Subject ${subjectCode} already appears on row ${earlier}`);
       }

@@ -73,17 +73,23 @@ function checkSubjectCode(value: string, ctx: z.RefinementCtx, siteCode?: string
   }
 }
 
-/** Any valid pseudonymous subject code. */
+// A code typed in lower case ("de01-007") is still a code: capitalise it before checking.
+function normaliseCase(value: string): string {
+  const v = value.trim();
+  return /^[a-z]{2}[a-z0-9]*\d[a-z0-9]*-\d+$/i.test(v) ? v.toUpperCase() : v;
+}
+
+/** Any valid pseudonymous subject code (trimmed, capitalised). */
 export const subjectCodeSchema = z
   .string()
-  .trim()
+  .transform(normaliseCase)
   .superRefine((v, ctx) => checkSubjectCode(v, ctx));
 
 /** A subject code that must belong to the given site. */
 export function subjectCodeSchemaForSite(siteCode: string) {
   return z
     .string()
-    .trim()
+    .transform(normaliseCase)
     .superRefine((v, ctx) => checkSubjectCode(v, ctx, siteCode));
 }
 
