@@ -1,0 +1,223 @@
+import { isSupportedCurrency } from "@/lib/money";
+import { localDate } from "./calendar";
+import { buildSiteLines, CycleBook, type SiteInput } from "./earned-lines";
+import { PriceBook } from "./pricing";
+import { computeProjection } from "./projection";
+import type {
+  CurrencyTotals,
+  CycleSummary,
+  EarnedLine,
+  HoldbackLedger,
+  PaymentSchedule,
+  PendingEvent,
+  SiteTotals,
+  Totals,
+  UnmatchedPayment,
+} from "./result";
+import type { PaymentScheduleSnapshot } from "./snapshot";
+
+function emptyTotals(currency: string): Totals {
+  return {
+    currency,
+    grossMinor: 0n,
+    overheadMinor: 0n,
+    holdbackMinor: 0n,
+    netMinor: 0n,
+    earnedMinor: 0n,
+    holdbackWithheldMinor: 0n,
+    holdbackReleasedMinor: 0n,
+    heldBackMinor: 0n,
+    paidMinor: 0n,
+    outstandingMinor: 0n,
+    overdueMinor: 0n,
+    unappliedMinor: 0n,
+    lineCount: 0,
+  };
+}
+
+function addTotals(into: Totals, from: Totals): void {
+  into.grossMinor += from.grossMinor;
+  into.overheadMinor += from.overheadMinor;
+  into.holdbackMinor += from.holdbackMinor;
+  into.netMinor += from.netMinor;
+  into.earnedMinor += from.earnedMinor;
+  into.holdbackWithheldMinor += from.holdbackWithheldMinor;
+  into.holdbackReleasedMinor += from.holdbackReleasedMinor;
+  into.heldBackMinor += from.heldBackMinor;
+  into.paidMinor += from.paidMinor;
+  into.outstandingMinor += from.outstandingMinor;
+  into.overdueMinor += from.overdueMinor;
+  into.unappliedMinor += from.unappliedMinor;
+  into.lineCount += from.lineCount;
+}
+
+/**
+ * The payment schedule of one site or a whole study: a pure, deterministic function of its snapshot
+ * (no clock, no I/O). Lines come out by site (input order), then trigger date, then key.
+ *
+ * Payments: every payment dated on or before asOf is applied to the line its key names, up to
+ * the line's net; a partial payment leaves the line outstanding (or overdue) with `partiallyPaid`,
+ * and anything paid beyond the net is `unapplied` (shown, not counted as paid), so that for every
+ * line, site and currency: earned (gross + overhead) = paid + outstanding + held back.
+ */
+export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): PaymentSchedule {
+  const sites = snapshot.sites;
+  const siteInputs = new Map<string, SiteInput>();
+  const pending: PendingEvent[] = [];
+  for (const site of sites) {
+    if (!isSupportedCurrency(site.currency)) throw new Error(`Site ${site.code}: currency ${site.currency} is not supported`);
+    if (siteInputs.has(site.id)) throw new Error(`Site ${site.id} appears twice in the snapshot`);
+    siteInputs.set(site.id, { site, asOf: localDate(snapshot.asOf, site.timeZone), versions: [], subjects: [], visits: [], invoices: [] });
+  }
+  for (const v of snapshot.budgetVersions) siteInputs.get(v.siteId)?.versions.push(v);
+  for (const input of siteInputs.values()) {
+    input.versions.sort((a, b) => (a.effectiveFrom < b.effectiveFrom ? -1 : a.effectiveFrom > b.effectiveFrom ? 1 : a.versionNumber - b.versionNumber));
+  }
+  const subjectSite = new Map<string, SiteInput>();
+  for (const s of snapshot.subjects) {
+    const input = siteInputs.get(s.siteId);
+    if (!input) {
+      pending.push({ key: `subject:${s.id}`, siteId: s.siteId, serviceDate: s.screenedOn, reason: "unknown_site", detail: `Subject ${s.code} belongs to no site in the snapshot` });
+      continue;
+    }
+    input.subjects.push(s);
+    subjectSite.set(s.id, input);
+  }
+  for (const v of snapshot.visits) {
+    const input = subjectSite.get(v.subjectId);
+    if (!input) {
+      pending.push({ key: `visit:${v.id}`, siteId: "", serviceDate: v.serviceDate, reason: "unknown_subject", detail: `Visit ${v.id} belongs to no subject in the snapshot` });
+      continue;
+    }
+    input.visits.push(v);
+  }
+  for (const inv of snapshot.passThroughInvoices ?? []) siteInputs.get(inv.siteId)?.invoices.push(inv);
+
+  const prices = new PriceBook();
+  const cycles = new CycleBook();
+  const lines: EarnedLine[] = [];
+  const perSite = new Map<string, EarnedLine[]>();
+  for (const input of siteInputs.values()) {
+    const siteLines = buildSiteLines(input, prices, cycles, pending);
+    perSite.set(input.site.id, siteLines);
+    for (const l of siteLines) lines.push(l);
+  }
+
+  // Payments, then each line's state.
+  const byKey = new Map<string, EarnedLine>();
+  for (const l of lines) byKey.set(l.key, l);
+  const unmatchedPayments: UnmatchedPayment[] = [];
+  for (const p of snapshot.payments ?? []) {
+    const line = byKey.get(p.lineKey);
+    if (!line) unmatchedPayments.push({ ...p, reason: "no_such_line" });
+    else if (p.paidOn > (siteInputs.get(line.siteId) as SiteInput).asOf) unmatchedPayments.push({ ...p, reason: "after_as_of" });
+    else {
+      line.paidMinor += p.amountMinor;
+      if (line.lastPaidOn === null || p.paidOn > line.lastPaidOn) line.lastPaidOn = p.paidOn;
+    }
+  }
+  for (const key of snapshot.inPaymentRun ?? []) {
+    const line = byKey.get(key);
+    if (line) line.inPaymentRun = true;
+  }
+
+  const cycleSummaries: CycleSummary[] = [];
+  const siteTotals: SiteTotals[] = [];
+  const holdback: HoldbackLedger[] = [];
+  const currencyTotals = new Map<string, CurrencyTotals>();
+  for (const input of siteInputs.values()) {
+    const { site, asOf } = input;
+    const totals: SiteTotals = { ...emptyTotals(site.currency), siteId: site.id, asOf };
+    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: 0n, releasedMinor: 0n, balanceMinor: 0n, releaseLineKey: null, byCycle: [] };
+    const cyclesOfSite = new Map<string, CycleSummary>();
+    const ledgerByCycle = new Map<string, HoldbackLedger["byCycle"][number]>();
+    for (const l of perSite.get(site.id) as EarnedLine[]) {
+      if (l.paidMinor > l.netMinor) {
+        l.unappliedMinor = l.paidMinor - l.netMinor;
+        l.paidMinor = l.netMinor;
+      }
+      l.outstandingMinor = l.netMinor - l.paidMinor;
+      l.partiallyPaid = l.paidMinor > 0n && l.outstandingMinor > 0n;
+      const overdue = l.outstandingMinor > 0n && l.dueDate < asOf;
+      l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
+
+      totals.grossMinor += l.grossMinor;
+      totals.overheadMinor += l.overheadMinor;
+      totals.holdbackMinor += l.holdbackMinor;
+      totals.netMinor += l.netMinor;
+      totals.paidMinor += l.paidMinor;
+      totals.outstandingMinor += l.outstandingMinor;
+      totals.unappliedMinor += l.unappliedMinor;
+      if (overdue) totals.overdueMinor += l.outstandingMinor;
+      totals.lineCount++;
+      if (l.holdbackMinor >= 0n) ledger.withheldMinor += l.holdbackMinor;
+      else {
+        ledger.releasedMinor -= l.holdbackMinor;
+        ledger.releaseLineKey = l.key;
+      }
+
+      const ck = `${l.cycle.label}|${l.dueDate}`;
+      let c = cyclesOfSite.get(ck);
+      if (!c) {
+        c = { siteId: site.id, currency: site.currency, cycle: l.cycle, dueDate: l.dueDate, lineCount: 0, grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n, paidMinor: 0n, outstandingMinor: 0n, overdueMinor: 0n };
+        cyclesOfSite.set(ck, c);
+      }
+      c.lineCount++;
+      c.grossMinor += l.grossMinor;
+      c.overheadMinor += l.overheadMinor;
+      c.holdbackMinor += l.holdbackMinor;
+      c.netMinor += l.netMinor;
+      c.paidMinor += l.paidMinor;
+      c.outstandingMinor += l.outstandingMinor;
+      if (overdue) c.overdueMinor += l.outstandingMinor;
+
+      if (l.holdbackMinor !== 0n) {
+        let h = ledgerByCycle.get(l.cycle.label);
+        if (!h) {
+          h = { label: l.cycle.label, withheldMinor: 0n, releasedMinor: 0n, balanceMinor: 0n };
+          ledgerByCycle.set(l.cycle.label, h);
+        }
+        if (l.holdbackMinor > 0n) h.withheldMinor += l.holdbackMinor;
+        else h.releasedMinor -= l.holdbackMinor;
+      }
+    }
+    totals.earnedMinor = totals.grossMinor + totals.overheadMinor;
+    totals.holdbackWithheldMinor = ledger.withheldMinor;
+    totals.holdbackReleasedMinor = ledger.releasedMinor;
+    totals.heldBackMinor = ledger.withheldMinor - ledger.releasedMinor;
+    ledger.balanceMinor = totals.heldBackMinor;
+    let running = 0n;
+    for (const h of [...ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
+      running += h.withheldMinor - h.releasedMinor;
+      h.balanceMinor = running;
+      ledger.byCycle.push(h);
+    }
+    siteTotals.push(totals);
+    holdback.push(ledger);
+    for (const c of [...cyclesOfSite.values()].sort((a, b) => (a.cycle.start < b.cycle.start ? -1 : a.cycle.start > b.cycle.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0))) {
+      cycleSummaries.push(c);
+    }
+    // Amounts in different currencies are never added together.
+    let ct = currencyTotals.get(site.currency);
+    if (!ct) {
+      ct = { ...emptyTotals(site.currency), siteCount: 0 };
+      currencyTotals.set(site.currency, ct);
+    }
+    addTotals(ct, totals);
+    ct.siteCount++;
+  }
+
+  const asOfBySite = new Map<string, string>();
+  for (const [id, input] of siteInputs) asOfBySite.set(id, input.asOf);
+  return {
+    asOf: snapshot.asOf,
+    lines,
+    cycles: cycleSummaries,
+    sites: siteTotals,
+    currencies: [...currencyTotals.values()].sort((a, b) => (a.currency < b.currency ? -1 : a.currency > b.currency ? 1 : 0)),
+    holdback,
+    pending,
+    unmatchedPayments,
+    projection: snapshot.projection ? computeProjection(snapshot, [...siteInputs.values()]) : null,
+  };
+}

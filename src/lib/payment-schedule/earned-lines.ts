@@ -1,0 +1,331 @@
+import { cyclePeriodOf, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
+import { PriceBook, pricePassThrough } from "./pricing";
+import type { Amounts, EarnedLine, LineKind, LineSource, PendingEvent } from "./result";
+import type { BudgetVersion, MilestoneFee, PassThroughInvoice, PaymentTrigger, RecordedVisit, ScreenFailureCap, Site, Subject } from "./snapshot";
+
+/** Everything about one site the line builders need, indexed once. */
+export interface SiteInput {
+  site: Site;
+  /** The site's calendar date of asOf. */
+  asOf: string;
+  /** Sorted by effectiveFrom, then versionNumber. */
+  versions: BudgetVersion[];
+  subjects: Subject[];
+  visits: RecordedVisit[];
+  invoices: PassThroughInvoice[];
+}
+
+/** The budget version effective on a date at the site: the latest effectiveFrom on or before it. */
+export function versionAt(versions: readonly BudgetVersion[], date: string): BudgetVersion | null {
+  for (let i = versions.length - 1; i >= 0; i--) {
+    const v = versions[i] as BudgetVersion;
+    if (v.effectiveFrom <= date) return v;
+  }
+  return null;
+}
+
+export class CycleBook {
+  private readonly periods = new Map<string, CyclePeriod>();
+  private readonly dues = new Map<CyclePeriod, Map<number, string>>();
+
+  period(date: string, cycle: PaymentCycle): CyclePeriod {
+    const k = cycle === "monthly" ? date.slice(0, 7) : `${date.slice(0, 7)}q`;
+    let p = this.periods.get(k);
+    if (!p) {
+      p = cyclePeriodOf(date, cycle);
+      this.periods.set(k, p);
+    }
+    return p;
+  }
+
+  due(period: CyclePeriod, netDays: number): string {
+    let byNet = this.dues.get(period);
+    if (!byNet) {
+      byNet = new Map();
+      this.dues.set(period, byNet);
+    }
+    let d = byNet.get(netDays);
+    if (d === undefined) {
+      d = dueDateOf(period, netDays);
+      byNet.set(netDays, d);
+    }
+    return d;
+  }
+}
+
+interface LineDraft {
+  key: string;
+  kind: LineKind;
+  source: LineSource;
+  serviceDate: string;
+  triggerDate: string;
+  trigger: PaymentTrigger | "event_date";
+  version: BudgetVersion;
+  amounts: Amounts;
+  overCap?: boolean;
+  cappedFeeMinor?: bigint;
+  capLiftedOn?: string;
+  capLiftedBySubjectId?: string;
+}
+
+function paidScreenFailuresAllowed(cap: ScreenFailureCap | null | undefined, enrolled: number): number {
+  if (!cap) return Infinity;
+  let allowed = Infinity;
+  if (cap.perEnrolled != null) allowed = Math.floor(enrolled / cap.perEnrolled);
+  if (cap.maxCount != null) allowed = Math.min(allowed, cap.maxCount);
+  return allowed;
+}
+
+function milestoneKey(siteId: string, m: Pick<MilestoneFee, "kind" | "n">): string {
+  return m.kind === "nth_enrolled" ? `milestone:${siteId}:enrolled-${m.n}` : `milestone:${siteId}:${m.kind}`;
+}
+
+const ZERO: Amounts = { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n };
+
+/**
+ * Every line a site has earned by its asOf date, unsettled (payments are applied afterwards).
+ * Rules beyond the computation rules, documented here:
+ * - Visit fees are earned on the trigger of the budget version in force on the service date
+ *   (service date, data-entry date or monitor-verified date; never before the service date).
+ *   Start-up fee, milestones, screen failures and pass-through invoices are earned on their event date.
+ * - The start-up fee is earned at site activation, priced by the version in force that day.
+ * - A milestone is paid when the version in force on its date lists it, at that version's fee.
+ * - Screen-failure cap: events in date order, enrolments before screen failures on the same day; a
+ *   screen failure past the cap is a zero-value `overCap` line that becomes payable, at the fee of its
+ *   own date's version, on the date of the enrolment that lifts the cap (cap of that day's version).
+ * - Holdback applies to lines earned up to close-out; the release line (key
+ *   holdback-release:<siteId>) on the close-out date pays back everything withheld; lines earned
+ *   after close-out have nothing withheld. Pass-through invoices: no overhead, no holdback.
+ * - Cycle and net days come from the version applied to the line; the cycle is the calendar
+ *   month or quarter of the trigger date.
+ */
+export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: CycleBook, pending: PendingEvent[]): EarnedLine[] {
+  const { site, asOf, versions } = input;
+  const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
+  const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
+  const drafts: LineDraft[] = [];
+  const subjectsById = new Map<string, Subject>();
+  for (const s of input.subjects) subjectsById.set(s.id, s);
+
+  // Start-up fee and milestones.
+  const activatedOn = site.activatedOn && site.activatedOn <= asOf ? site.activatedOn : null;
+  if (activatedOn) {
+    const v = versionAt(versions, activatedOn);
+    if (!v) pending.push({ key: `startup:${site.id}`, siteId: site.id, serviceDate: activatedOn, reason: "no_budget_in_effect", detail: `No budget version in effect on ${activatedOn}` });
+    else if (v.startupFeeMinor > 0n)
+      drafts.push({
+        key: `startup:${site.id}`,
+        kind: "startup",
+        source: { event: "site_activation", id: site.id, description: "Start-up fee" },
+        serviceDate: activatedOn,
+        triggerDate: activatedOn,
+        trigger: "event_date",
+        version: v,
+        amounts: prices.price(v, v.startupFeeMinor, withholds(activatedOn)),
+      });
+  }
+
+  const enrolments = input.subjects
+    .filter((s) => s.enrolledOn && s.enrolledOn <= asOf)
+    .sort((a, b) => ((a.enrolledOn as string) < (b.enrolledOn as string) ? -1 : (a.enrolledOn as string) > (b.enrolledOn as string) ? 1 : a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+  let firstImplant: string | null = null;
+  for (const s of input.subjects) if (s.implantedOn && s.implantedOn <= asOf && (firstImplant === null || s.implantedOn < firstImplant)) firstImplant = s.implantedOn;
+
+  const milestoneDefs = new Map<string, Pick<MilestoneFee, "kind" | "n">>();
+  for (const v of versions) for (const m of v.milestoneFees) milestoneDefs.set(milestoneKey(site.id, m), { kind: m.kind, n: m.n ?? null });
+  for (const [key, m] of milestoneDefs) {
+    let date: string | null = null;
+    let subject: Subject | undefined;
+    if (m.kind === "site_activated") date = activatedOn;
+    else if (m.kind === "close_out") date = closedOutOn;
+    else if (m.kind === "first_implant") date = firstImplant;
+    else if (m.n != null) {
+      subject = enrolments[m.n - 1];
+      date = subject?.enrolledOn ?? null;
+    }
+    if (!date) continue;
+    const v = versionAt(versions, date);
+    const fee = v?.milestoneFees.find((f) => f.kind === m.kind && (f.n ?? null) === (m.n ?? null));
+    if (!v || !fee || fee.amountMinor === 0n) continue;
+    drafts.push({
+      key,
+      kind: "milestone",
+      source: {
+        event: m.kind === "close_out" ? "close_out" : "milestone",
+        id: subject?.id ?? site.id,
+        milestone: m.kind,
+        ...(m.n != null ? { n: m.n } : {}),
+        ...(subject ? { subjectId: subject.id, subjectCode: subject.code } : {}),
+      },
+      serviceDate: date,
+      triggerDate: date,
+      trigger: "event_date",
+      version: v,
+      amounts: prices.price(v, fee.amountMinor, withholds(date)),
+    });
+  }
+
+  // Screen failures against the cap, in date order.
+  type CapEvent = { date: string; order: number; subject: Subject };
+  const capEvents: CapEvent[] = [];
+  for (const s of enrolments) capEvents.push({ date: s.enrolledOn as string, order: 0, subject: s });
+  for (const s of input.subjects) if (s.screenFailedOn && s.screenFailedOn <= asOf) capEvents.push({ date: s.screenFailedOn, order: 1, subject: s });
+  capEvents.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.order - b.order || (a.subject.code < b.subject.code ? -1 : a.subject.code > b.subject.code ? 1 : 0)));
+  let enrolled = 0;
+  let paidFailures = 0;
+  const overCap: LineDraft[] = [];
+  for (const e of capEvents) {
+    if (e.order === 0) {
+      enrolled++;
+      const vE = versionAt(versions, e.date);
+      while (overCap.length > 0 && paidFailures < paidScreenFailuresAllowed(vE?.screenFailureCap, enrolled)) {
+        const d = overCap.shift() as LineDraft;
+        paidFailures++;
+        d.overCap = false;
+        d.triggerDate = e.date;
+        d.capLiftedOn = e.date;
+        d.capLiftedBySubjectId = e.subject.id;
+        d.amounts = prices.price(d.version, d.cappedFeeMinor as bigint, withholds(e.date));
+      }
+      continue;
+    }
+    const key = `screen-failure:${e.subject.id}`;
+    const v = versionAt(versions, e.date);
+    if (!v) {
+      pending.push({ key, siteId: site.id, serviceDate: e.date, reason: "no_budget_in_effect", detail: `No budget version in effect on ${e.date}` });
+      continue;
+    }
+    if (v.screenFailureFeeMinor === 0n) continue;
+    const draft: LineDraft = {
+      key,
+      kind: "screen_failure",
+      source: { event: "screen_failure", id: e.subject.id, subjectId: e.subject.id, subjectCode: e.subject.code },
+      serviceDate: e.date,
+      triggerDate: e.date,
+      trigger: "event_date",
+      version: v,
+      amounts: ZERO,
+      overCap: true,
+      cappedFeeMinor: v.screenFailureFeeMinor,
+    };
+    if (paidFailures < paidScreenFailuresAllowed(v.screenFailureCap, enrolled)) {
+      paidFailures++;
+      draft.overCap = false;
+      draft.amounts = prices.price(v, v.screenFailureFeeMinor, withholds(e.date));
+    } else overCap.push(draft);
+    drafts.push(draft);
+  }
+
+  // Visits.
+  for (const visit of input.visits) {
+    if (visit.status !== "done") continue;
+    const key = `visit:${visit.id}`;
+    const subject = subjectsById.get(visit.subjectId) as Subject;
+    if (visit.serviceDate > asOf) {
+      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "after_as_of", detail: `Service date ${visit.serviceDate} is after ${asOf}` });
+      continue;
+    }
+    const v = versionAt(versions, visit.serviceDate);
+    if (!v) {
+      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_budget_in_effect", detail: `No budget version in effect on ${visit.serviceDate}` });
+      continue;
+    }
+    const fee = v.visitFees[visit.visitCode];
+    if (fee === undefined) {
+      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_fee_for_visit_code", detail: `Budget version ${v.versionNumber} has no fee for visit ${visit.visitCode}` });
+      continue;
+    }
+    if (fee === 0n) continue;
+    let triggerDate: string | null | undefined = visit.serviceDate;
+    if (v.trigger === "data_entered") triggerDate = visit.dataEnteredOn;
+    else if (v.trigger === "monitor_verified") triggerDate = visit.verifiedOn;
+    if (!triggerDate || triggerDate > asOf) {
+      const waiting = v.trigger === "data_entered" ? "awaiting_data_entry" : "awaiting_verification";
+      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: waiting, detail: `Earned once ${v.trigger === "data_entered" ? "data are entered" : "a monitor verifies the visit"}` });
+      continue;
+    }
+    if (triggerDate < visit.serviceDate) triggerDate = visit.serviceDate;
+    drafts.push({
+      key,
+      kind: "visit",
+      source: { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode },
+      serviceDate: visit.serviceDate,
+      triggerDate,
+      trigger: v.trigger,
+      version: v,
+      amounts: prices.price(v, fee, withholds(triggerDate)),
+    });
+  }
+
+  // Pass-through invoices.
+  for (const inv of input.invoices) {
+    const key = `pass-through:${inv.id}`;
+    if (inv.approvedOn > asOf) continue;
+    const v = versionAt(versions, inv.approvedOn);
+    if (!v) {
+      pending.push({ key, siteId: site.id, serviceDate: inv.approvedOn, reason: "no_budget_in_effect", detail: `No budget version in effect on ${inv.approvedOn}` });
+      continue;
+    }
+    drafts.push({
+      key,
+      kind: "pass_through",
+      source: { event: "invoice", id: inv.id, description: inv.description },
+      serviceDate: inv.approvedOn,
+      triggerDate: inv.approvedOn,
+      trigger: "event_date",
+      version: v,
+      amounts: pricePassThrough(inv.amountMinor),
+    });
+  }
+
+  // Holdback release at close-out: everything withheld so far.
+  if (closedOutOn) {
+    let withheld = 0n;
+    for (const d of drafts) withheld += d.amounts.holdbackMinor;
+    const v = versionAt(versions, closedOutOn);
+    if (v && withheld !== 0n) {
+      drafts.push({
+        key: `holdback-release:${site.id}`,
+        kind: "holdback_release",
+        source: { event: "close_out", id: site.id, description: "Release of holdback at close-out" },
+        serviceDate: closedOutOn,
+        triggerDate: closedOutOn,
+        trigger: "event_date",
+        version: v,
+        amounts: { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: -withheld, netMinor: withheld },
+      });
+    }
+  }
+
+  drafts.sort((a, b) => (a.triggerDate < b.triggerDate ? -1 : a.triggerDate > b.triggerDate ? 1 : a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
+  return drafts.map((d) => {
+    const cycle = cycles.period(d.triggerDate, d.version.cycle);
+    const line: EarnedLine = {
+      key: d.key,
+      siteId: site.id,
+      currency: site.currency,
+      kind: d.kind,
+      source: d.source,
+      serviceDate: d.serviceDate,
+      triggerDate: d.triggerDate,
+      trigger: d.trigger,
+      budgetVersionId: d.version.id,
+      budgetVersionNumber: d.version.versionNumber,
+      ...d.amounts,
+      overCap: d.overCap ?? false,
+      cycle,
+      dueDate: cycles.due(cycle, d.version.netDays),
+      paidMinor: 0n,
+      outstandingMinor: d.amounts.netMinor,
+      unappliedMinor: 0n,
+      lastPaidOn: null,
+      partiallyPaid: false,
+      inPaymentRun: false,
+      state: "outstanding",
+    };
+    if (d.cappedFeeMinor !== undefined) line.cappedFeeMinor = d.cappedFeeMinor;
+    if (d.capLiftedOn !== undefined) line.capLiftedOn = d.capLiftedOn;
+    if (d.capLiftedBySubjectId !== undefined) line.capLiftedBySubjectId = d.capLiftedBySubjectId;
+    return line;
+  });
+}

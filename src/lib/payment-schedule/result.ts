@@ -1,0 +1,183 @@
+import type { PoissonGammaFit } from "@/lib/forecast";
+import type { CyclePeriod } from "./calendar";
+import type { MilestoneKind, PaymentTrigger } from "./snapshot";
+
+export type LineKind = "startup" | "milestone" | "visit" | "screen_failure" | "pass_through" | "holdback_release";
+
+/**
+ * paid: nothing left to pay; outstanding: some net unpaid, not yet past its due date; overdue:
+ * unpaid after its due date; not_payable: a zero-value line (a screen failure over the cap).
+ * A partial payment leaves the line outstanding or overdue with `partiallyPaid` set.
+ */
+export type LineState = "paid" | "outstanding" | "overdue" | "not_payable";
+
+/** Where a line comes from: enough to find the event it was earned on. */
+export interface LineSource {
+  event: "site_activation" | "milestone" | "visit" | "screen_failure" | "invoice" | "close_out";
+  /** Id of the source record: visit, subject, invoice or site. */
+  id: string;
+  subjectId?: string;
+  subjectCode?: string;
+  visitCode?: string;
+  milestone?: MilestoneKind;
+  /** For the N-subjects-enrolled milestone. */
+  n?: number;
+  description?: string;
+}
+
+export interface EarnedLine {
+  /** Stable key derived from the source event; payments and payment runs refer to it. */
+  key: string;
+  siteId: string;
+  currency: string;
+  kind: LineKind;
+  source: LineSource;
+  serviceDate: string;
+  triggerDate: string;
+  /** The trigger that made the line earned; "event_date" for milestones, fees and invoices. */
+  trigger: PaymentTrigger | "event_date";
+  budgetVersionId: string;
+  budgetVersionNumber: number;
+  grossMinor: bigint;
+  overheadMinor: bigint;
+  holdbackMinor: bigint;
+  netMinor: bigint;
+  /** A screen failure beyond the cap: zero-value until later enrolment lifts the cap. */
+  overCap: boolean;
+  /** The fee the line would carry without the cap (screen failures only). */
+  cappedFeeMinor?: bigint;
+  /** Set when an enrolment lifted the cap: that enrolment's date and subject. */
+  capLiftedOn?: string;
+  capLiftedBySubjectId?: string;
+  cycle: CyclePeriod;
+  dueDate: string;
+  paidMinor: bigint;
+  outstandingMinor: bigint;
+  /** Paid beyond the line's net: kept apart so the reconciliation stays exact. */
+  unappliedMinor: bigint;
+  lastPaidOn: string | null;
+  partiallyPaid: boolean;
+  inPaymentRun: boolean;
+  state: LineState;
+}
+
+export interface Amounts {
+  grossMinor: bigint;
+  overheadMinor: bigint;
+  holdbackMinor: bigint;
+  netMinor: bigint;
+}
+
+export interface CycleSummary extends Amounts {
+  siteId: string;
+  currency: string;
+  cycle: CyclePeriod;
+  dueDate: string;
+  lineCount: number;
+  paidMinor: bigint;
+  outstandingMinor: bigint;
+  overdueMinor: bigint;
+}
+
+/** Totals that reconcile: earned (gross + overhead) = paid + outstanding + held back. */
+export interface Totals extends Amounts {
+  currency: string;
+  /** gross + overhead. */
+  earnedMinor: bigint;
+  holdbackWithheldMinor: bigint;
+  holdbackReleasedMinor: bigint;
+  /** Withheld and not yet released. */
+  heldBackMinor: bigint;
+  paidMinor: bigint;
+  outstandingMinor: bigint;
+  overdueMinor: bigint;
+  unappliedMinor: bigint;
+  lineCount: number;
+}
+
+export interface SiteTotals extends Totals {
+  siteId: string;
+  asOf: string;
+}
+
+export interface CurrencyTotals extends Totals {
+  siteCount: number;
+}
+
+export interface HoldbackLedger {
+  siteId: string;
+  currency: string;
+  withheldMinor: bigint;
+  releasedMinor: bigint;
+  balanceMinor: bigint;
+  releaseLineKey: string | null;
+  /** Withheld per cycle, with the running balance after each. */
+  byCycle: { label: string; withheldMinor: bigint; releasedMinor: bigint; balanceMinor: bigint }[];
+}
+
+/** A recorded event that is not (yet) an earned line, with the reason. */
+export interface PendingEvent {
+  key: string;
+  siteId: string;
+  serviceDate: string;
+  reason: "awaiting_data_entry" | "awaiting_verification" | "after_as_of" | "no_budget_in_effect" | "no_fee_for_visit_code" | "unknown_site" | "unknown_subject";
+  detail: string;
+}
+
+export interface UnmatchedPayment {
+  lineKey: string;
+  amountMinor: bigint;
+  paidOn: string;
+  reason: "no_such_line" | "after_as_of";
+}
+
+export interface ProjectionMonthFigures {
+  month: string;
+  start: string;
+  end: string;
+  scheduledVisitCount: number;
+  /** Calendar visits of enrolled subjects priced with the budget in force on their target date. */
+  scheduled: Amounts;
+  /** Expected from forecast enrolment (milestones and the visits of new subjects). */
+  expectedEnrolments: number;
+  forecastGrossMinor: bigint;
+  forecastNetMinor: bigint;
+  /** scheduled net + forecast net, with the 80% band of the forecast part. */
+  expectedNetMinor: bigint;
+  lowNetMinor: bigint;
+  highNetMinor: bigint;
+}
+
+export interface SiteProjection {
+  siteId: string;
+  currency: string;
+  recruiting: boolean;
+  /** Posterior mean enrolment rate, subjects per month. */
+  enrolmentRatePerMonth: number;
+  months: ProjectionMonthFigures[];
+}
+
+export interface CurrencyProjection {
+  currency: string;
+  months: ProjectionMonthFigures[];
+}
+
+export interface Projection {
+  asOf: string;
+  horizonMonths: number;
+  fit: PoissonGammaFit | null;
+  sites: SiteProjection[];
+  currencies: CurrencyProjection[];
+}
+
+export interface PaymentSchedule {
+  asOf: string;
+  lines: EarnedLine[];
+  cycles: CycleSummary[];
+  sites: SiteTotals[];
+  currencies: CurrencyTotals[];
+  holdback: HoldbackLedger[];
+  pending: PendingEvent[];
+  unmatchedPayments: UnmatchedPayment[];
+  projection: Projection | null;
+}
