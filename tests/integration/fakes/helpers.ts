@@ -72,11 +72,11 @@ export async function control<T = unknown>(baseUrl: string, method: string, path
 }
 
 /** Polls until check() is truthy; fails with the message after timeoutMs. */
-export async function eventually<T>(check: () => T | Promise<T>, message: string, timeoutMs = 10_000): Promise<T> {
+export async function eventually<T>(check: () => T | Promise<T>, message: string, timeoutMs = 10_000): Promise<NonNullable<T>> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const v = await check();
-    if (v) return v;
+    if (v) return v as NonNullable<T>;
     if (Date.now() > deadline) throw new Error(`timed out: ${message}`);
     await new Promise((r) => setTimeout(r, 25));
   }

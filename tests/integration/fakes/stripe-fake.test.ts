@@ -155,6 +155,23 @@ describe("transfers", () => {
     ).rejects.toMatchObject({ code: "parameter_unknown", param: "colour" });
   });
 
+  it("pages through transfers newest first with the SDK's auto-pagination", async () => {
+    const stripe = client();
+    const account = await verifiedAccount(stripe);
+    const ids: string[] = [];
+    for (let i = 1; i <= 5; i += 1) ids.push((await stripe.transfers.create({ amount: i, currency: "usd", destination: account.id })).id);
+    const firstPage = await stripe.transfers.list({ limit: 2 });
+    expect(firstPage.data.map((t) => t.id)).toEqual([ids[4], ids[3]]);
+    expect(firstPage.has_more).toBe(true);
+    const all = await stripe.transfers.list({ limit: 2 }).autoPagingToArray({ limit: 100 });
+    expect(all.map((t) => t.id)).toEqual([...ids].reverse());
+  });
+
+  it("refuses an unknown verification state on the control API", async () => {
+    const account = await client().accounts.create({ type: "custom" });
+    await expect(control(fake.url, "POST", `/_fake/accounts/${account.id}/verification`, { state: "approved" })).rejects.toThrow(/400/);
+  });
+
   it("reverses part of a transfer, then the rest, and refuses more", async () => {
     const stripe = client();
     const account = await verifiedAccount(stripe);
