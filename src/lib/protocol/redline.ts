@@ -1,9 +1,9 @@
 // Redline between two protocol versions: blocks (top-level nodes) are aligned with jsdiff's
 // array diff over block signatures (their canonical JSON), removed/added blocks in the same
 // hunk are paired when their words are alike, and each paired block is compared word by word
-// with jsdiff's diffWordsWithSpace. Output serves an inline view and a side-by-side view.
+// (diffBlockWords: jsdiff's word tokens, whitespace kept exactly). Output serves an inline view and a side-by-side view.
 // Also diffVisitSchedules for the structured schedule of visits. Client-safe.
-import { diffArrays, diffWordsWithSpace } from "diff";
+import { diffArrays } from "diff";
 import { canonicalJson } from "./canonical-json";
 import { nodePlainText, topLevelBlocks } from "./plain-text";
 import { sanitizeProtocolDoc } from "./sanitize";
@@ -154,12 +154,89 @@ function wholeText(text: string, kind: PartKind): WordPart[] {
   return text ? [{ kind, text }] : [];
 }
 
-/** Word-level parts of a changed block (jsdiff diffWordsWithSpace). */
+// Word tokens as jsdiff's diffWords sees them: runs of (extended Latin) word characters, or
+// single punctuation marks; whitespace runs are kept apart so both texts can be rebuilt exactly.
+const WORD_CHARS = "a-zA-Z0-9_\\u{AD}\\u{C0}-\\u{D6}\\u{D8}-\\u{F6}\\u{F8}-\\u{2C6}\\u{2C8}-\\u{2D7}\\u{2DE}-\\u{2FF}\\u{1E00}-\\u{1EFF}";
+const TOKEN = new RegExp(`[${WORD_CHARS}]+|\\s+|[^${WORD_CHARS}]`, "gu");
+const SPACE = /^\s/;
+
+interface Tokens {
+  lead: string;
+  words: string[];
+  /** Whitespace after each word ("" when the next token follows directly). */
+  trail: string[];
+}
+
+function tokenize(text: string): Tokens {
+  const out: Tokens = { lead: "", words: [], trail: [] };
+  for (const part of text.match(TOKEN) ?? []) {
+    if (SPACE.test(part)) {
+      if (out.words.length === 0) out.lead += part;
+      else out.trail[out.trail.length - 1] += part;
+    } else {
+      out.words.push(part);
+      out.trail.push("");
+    }
+  }
+  return out;
+}
+
+/**
+ * Word-level parts of a changed block. Words are aligned with jsdiff's array diff over the
+ * same tokens diffWords uses, so the words marked inserted or deleted agree with diffWords;
+ * unlike diffWords (which keeps only one side's spacing) each side's whitespace is kept exactly,
+ * as diffWordsWithSpace does, but whitespace never anchors an alignment (with spaces as tokens a
+ * minimal diff may keep the spaces and delete and re-insert common words).
+ */
 export function diffBlockWords(before: string, after: string): WordPart[] {
-  return diffWordsWithSpace(before, after).map((c) => ({
-    kind: c.added ? "inserted" : c.removed ? "deleted" : "equal",
-    text: c.value,
-  }));
+  const a = tokenize(before);
+  const b = tokenize(after);
+  const parts: WordPart[] = [];
+  const emit = (kind: PartKind, text: string) => {
+    if (!text) return;
+    const last = parts[parts.length - 1];
+    if (last && last.kind === kind) last.text += text;
+    else parts.push({ kind, text });
+  };
+  const spacing = (x: string, y: string) => {
+    if (x === y) emit("equal", x);
+    else {
+      emit("deleted", x);
+      emit("inserted", y);
+    }
+  };
+  spacing(a.lead, b.lead);
+  let ia = 0;
+  let ib = 0;
+  let deleted = "";
+  let inserted = "";
+  const flushHunk = () => {
+    // A replacement's shared trailing whitespace reads as unchanged: "[twelve][twenty-four] months".
+    let common = "";
+    if (deleted && inserted) {
+      const wsA = /\s*$/.exec(deleted)![0];
+      const wsB = /\s*$/.exec(inserted)![0];
+      while (common.length < Math.min(wsA.length, wsB.length) && wsA[wsA.length - 1 - common.length] === wsB[wsB.length - 1 - common.length])
+        common = wsA[wsA.length - 1 - common.length] + common;
+    }
+    emit("deleted", deleted.slice(0, deleted.length - common.length));
+    emit("inserted", inserted.slice(0, inserted.length - common.length));
+    emit("equal", common);
+    deleted = inserted = "";
+  };
+  for (const change of diffArrays(a.words, b.words)) {
+    if (change.removed) for (let n = 0; n < change.count; n++, ia++) deleted += a.words[ia]! + a.trail[ia]!;
+    else if (change.added) for (let n = 0; n < change.count; n++, ib++) inserted += b.words[ib]! + b.trail[ib]!;
+    else {
+      flushHunk();
+      for (let n = 0; n < change.count; n++, ia++, ib++) {
+        emit("equal", a.words[ia]!);
+        spacing(a.trail[ia]!, b.trail[ib]!);
+      }
+    }
+  }
+  flushHunk();
+  return parts;
 }
 
 type Step = { op: "pair"; a: PreparedBlock; b: PreparedBlock } | { op: "del"; a: PreparedBlock } | { op: "ins"; b: PreparedBlock };
