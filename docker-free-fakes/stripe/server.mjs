@@ -259,7 +259,7 @@ export class StripeFake {
   async close() {
     for (const res of this.heldResponses) res.destroy();
     await this.webhooks.close();
-    this.store.save();
+    this.store.writeNow();
   }
 }
 

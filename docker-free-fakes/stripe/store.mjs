@@ -13,6 +13,8 @@ export function newId(prefix) {
   return `${prefix}_${s}`;
 }
 
+const SAVE_DELAY_MS = 50;
+
 export const nowSeconds = () => Math.floor(Date.now() / 1000);
 
 function emptyState() {
@@ -34,6 +36,7 @@ export class Store {
   /** @param {{ file?: string | null }} options file null keeps state in memory only */
   constructor({ file }) {
     this.file = file ?? null;
+    this.saveTimer = null;
     this.state = emptyState();
     if (this.file && fs.existsSync(this.file)) {
       const loaded = JSON.parse(fs.readFileSync(this.file, "utf8"));
@@ -47,8 +50,19 @@ export class Store {
     return this.state.seq;
   }
 
-  /** Writes atomically (temp file + rename) so a crash never leaves half a file. */
+  /**
+   * Marks the state changed; the file is written at most every SAVE_DELAY_MS (rewriting the whole
+   * file per request made 1,000 transfers quadratic). close() writes at once.
+   */
   save() {
+    if (!this.file || this.saveTimer) return;
+    this.saveTimer = setTimeout(() => this.writeNow(), SAVE_DELAY_MS);
+  }
+
+  /** Writes atomically (temp file + rename) so a crash never leaves half a file. */
+  writeNow() {
+    if (this.saveTimer) clearTimeout(this.saveTimer);
+    this.saveTimer = null;
     if (!this.file) return;
     fs.mkdirSync(path.dirname(this.file), { recursive: true });
     const tmp = `${this.file}.${process.pid}.tmp`;
