@@ -123,13 +123,13 @@ export class WebhookDispatcher {
       }
       return attempted;
     };
-    const previous = this.pumping ?? Promise.resolve([]);
-    const current = previous.catch(() => []).then(run);
-    this.pumping = current.finally(() => {
-      if (this.pumping === tracked) this.pumping = null;
+    // Chain after any pump in progress so deliveries never overlap.
+    const current = (this.pumping ?? Promise.resolve()).catch(() => {}).then(run);
+    const settled = current.catch(() => {}).finally(() => {
+      if (this.pumping === settled) this.pumping = null;
       this.schedule();
     });
-    const tracked = this.pumping;
+    this.pumping = settled;
     return current;
   }
 

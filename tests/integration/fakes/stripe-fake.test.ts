@@ -30,7 +30,8 @@ const state = () => control<Recorded>(fake.url, "GET", "/_fake/state");
 
 beforeAll(async () => {
   dataDir = tempDir("stripe-fake");
-  fake = await startStripeFake({ port: 0, dataDir, webhookUrl: null, log: () => {} });
+  // Options are explicit so the environment of `npm test` (which sets the fakes' variables) cannot change them.
+  fake = await startStripeFake({ port: 0, dataDir, webhookUrl: null, initialAccountState: "pending", startingBalance: 100_000_000, log: () => {} });
 });
 
 afterAll(async () => {

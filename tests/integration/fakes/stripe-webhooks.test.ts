@@ -28,6 +28,8 @@ beforeAll(async () => {
     dataDir: null,
     webhookUrl: receiver.url,
     webhookSecret: SECRET,
+    initialAccountState: "pending",
+    startingBalance: 100_000_000,
     // Tests flush the queue themselves, except where automatic delivery is under test.
     autoDeliver: false,
     webhookMaxAttempts: 3,
