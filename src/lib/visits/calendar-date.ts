@@ -52,8 +52,22 @@ export function toDayNumber(date: IsoDate): number {
   return daysFromCivil(Number(date.slice(0, 4)), Number(date.slice(5, 7)), Number(date.slice(8, 10)));
 }
 
+// Calendars reuse a few thousand distinct dates: share one string per day instead of building
+// millions (measured by scripts/bench/visit-calendar.ts). Bounded to 1900–2199.
+const CACHE_FIRST = -25567; // 1900-01-01
+const CACHE_LAST = 84005; // 2199-12-31
+const dateStringCache = new Map<number, IsoDate>();
+
 /** ISO date of a day number (inverse of toDayNumber). */
 export function fromDayNumber(day: number): IsoDate {
+  const cached = dateStringCache.get(day);
+  if (cached !== undefined) return cached;
+  const s = formatDayNumber(day);
+  if (day >= CACHE_FIRST && day <= CACHE_LAST) dateStringCache.set(day, s);
+  return s;
+}
+
+function formatDayNumber(day: number): IsoDate {
   if (!Number.isSafeInteger(day)) throw new RangeError(`Day number must be an integer, got ${day}`);
   const z = day + 719468;
   const era = Math.floor(z / 146097);

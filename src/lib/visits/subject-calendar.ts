@@ -150,6 +150,53 @@ function preferRecord(a: RecordedVisit, b: RecordedVisit): RecordedVisit {
   return (b.actualDate ?? "") > (a.actualDate ?? "") ? b : a;
 }
 
+// One object shape for every entry (keeps property access fast over hundreds of thousands).
+function makeEntry(
+  subjectCode: string,
+  visit: ScheduledVisit,
+  version: ProtocolVersionAtSite,
+  anchorDay: number | null,
+  state: VisitState,
+  dueSoon: boolean,
+  record: RecordedVisit | null,
+  actualDate: IsoDate | null,
+  outside: number | null,
+): CalendarEntry {
+  const target = anchorDay === null ? null : anchorDay + visit.dayOffset;
+  return {
+    subjectCode,
+    visitCode: visit.code,
+    label: visit.label,
+    versionId: version.versionId,
+    versionLabel: version.versionLabel,
+    anchor: visit.anchor,
+    anchorDate: anchorDay === null ? null : fromDayNumber(anchorDay),
+    dayOffset: visit.dayOffset,
+    windowBefore: visit.windowBefore,
+    windowAfter: visit.windowAfter,
+    targetDate: target === null ? null : fromDayNumber(target),
+    windowStart: target === null ? null : fromDayNumber(target - visit.windowBefore),
+    windowEnd: target === null ? null : fromDayNumber(target + visit.windowAfter),
+    state,
+    dueSoon,
+    recorded: record !== null,
+    actualDate,
+    daysOutsideWindow: outside,
+    dataEnteredOn: record?.dataEnteredOn ?? null,
+    verifiedOn: record?.verifiedOn ?? null,
+  };
+}
+
+const versionIndex = new WeakMap<readonly ProtocolVersionAtSite[], Map<string, ProtocolVersionAtSite>>();
+function indexVersions(versions: readonly ProtocolVersionAtSite[]): Map<string, ProtocolVersionAtSite> {
+  let idx = versionIndex.get(versions);
+  if (!idx) {
+    idx = new Map(versions.map((v) => [v.versionId, v]));
+    versionIndex.set(versions, idx);
+  }
+  return idx;
+}
+
 export function computeSubjectCalendar(input: SubjectCalendarInput): SubjectCalendar {
   const { subjectCode, asOf } = input;
   if (!Number.isInteger(input.dueSoonDays) || input.dueSoonDays < 0) {
@@ -160,21 +207,15 @@ export function computeSubjectCalendar(input: SubjectCalendarInput): SubjectCale
   const versionInForce = current ? { versionId: current.versionId, versionLabel: current.versionLabel } : null;
   if (input.status === "screen_failed") return { subjectCode, asOf, versionInForce, entries: [] };
 
-  const versionsById = new Map<string, ProtocolVersionAtSite>();
-  for (const v of input.versions) versionsById.set(v.versionId, v);
-
-  // Anchor dates in the future (e.g. a planned implant) have not happened yet.
-  const anchorDayCache = new Map<AnchorEvent, number | null>();
-  const anchorDay = (anchor: AnchorEvent): number | null => {
-    let d = anchorDayCache.get(anchor);
-    if (d === undefined) {
-      const date = anchorDateOf(input.anchors, anchor);
-      d = date == null ? null : toDayNumber(date);
-      if (d !== null && d > asOfDay) d = null;
-      anchorDayCache.set(anchor, d);
-    }
-    return d;
+  const versionsById = indexVersions(input.versions);
+  const rawAnchorDay = (anchor: AnchorEvent): number | null => {
+    const date = anchorDateOf(input.anchors, anchor);
+    return date == null ? null : toDayNumber(date);
   };
+  const consentDay = rawAnchorDay("consent");
+  const enrolmentDay = rawAnchorDay("enrolment");
+  const implantDay = rawAnchorDay("implant");
+  const anchorDayOf = (anchor: AnchorEvent) => (anchor === "consent" ? consentDay : anchor === "enrolment" ? enrolmentDay : implantDay);
 
   const records = new Map<string, RecordedVisit>();
   for (const r of input.recordedVisits) {
@@ -182,31 +223,17 @@ export function computeSubjectCalendar(input: SubjectCalendarInput): SubjectCale
     records.set(r.visitCode, prev ? preferRecord(prev, r) : r);
   }
 
-  const rows: { entry: CalendarEntry; order: number; targetDay: number }[] = [];
-
-  const base = (visit: ScheduledVisit, version: ProtocolVersionAtSite, aDay: number | null) => {
-    const target = aDay === null ? null : aDay + visit.dayOffset;
-    return {
-      target,
-      entry: {
-        subjectCode,
-        visitCode: visit.code,
-        label: visit.label,
-        versionId: version.versionId,
-        versionLabel: version.versionLabel,
-        anchor: visit.anchor,
-        anchorDate: aDay === null ? null : fromDayNumber(aDay),
-        dayOffset: visit.dayOffset,
-        windowBefore: visit.windowBefore,
-        windowAfter: visit.windowAfter,
-        targetDate: target === null ? null : fromDayNumber(target),
-        windowStart: target === null ? null : fromDayNumber(target - visit.windowBefore),
-        windowEnd: target === null ? null : fromDayNumber(target + visit.windowAfter),
-      },
-    };
+  const entries: CalendarEntry[] = [];
+  const sortKeys: number[] = [];
+  const orders: number[] = [];
+  const push = (entry: CalendarEntry, targetDay: number | null, order: number) => {
+    entries.push(entry);
+    sortKeys.push(targetDay ?? Number.MAX_SAFE_INTEGER);
+    orders.push(order);
   };
 
-  // Recorded visits, each under its own version.
+  // Recorded visits, each under its own version. A recorded visit is judged against its anchor
+  // even when the anchor is dated after asOf (a late correction).
   for (const r of records.values()) {
     const version = versionsById.get(r.versionId);
     if (!version) {
@@ -219,80 +246,54 @@ export function computeSubjectCalendar(input: SubjectCalendarInput): SubjectCale
       );
     }
     const { visit, order } = found;
-    // A recorded visit is judged against its anchor even if the anchor is dated after asOf (a correction).
-    const rawAnchor = anchorDateOf(input.anchors, visit.anchor);
-    const aDay = rawAnchor == null ? null : toDayNumber(rawAnchor);
-    const { target, entry } = base(visit, version, aDay);
-    let state: VisitState;
-    let outside: number | null = null;
-    let actualDate: IsoDate | null = r.actualDate ?? null;
+    const aDay = anchorDayOf(visit.anchor);
+    const target = aDay === null ? null : aDay + visit.dayOffset;
     if (r.status === "missed") {
-      state = "missed";
-    } else {
-      if (actualDate == null) {
-        throw new CalendarInputError(`Subject ${subjectCode}: visit ${r.visitCode} is recorded as done without a date`);
-      }
-      actualDate = fromDayNumber(toDayNumber(actualDate)); // validates the date
-      if (target === null) {
-        state = "completed_unanchored";
-      } else {
-        outside = daysOutsideWindow(toDayNumber(actualDate), target - visit.windowBefore, target + visit.windowAfter);
-        state = outside === 0 ? "completed_in_window" : "completed_out_of_window";
-      }
+      push(makeEntry(subjectCode, visit, version, aDay, "missed", false, r, r.actualDate ?? null, null), target, order);
+      continue;
     }
-    rows.push({
-      order,
-      targetDay: target ?? Number.POSITIVE_INFINITY,
-      entry: {
-        ...entry,
-        state,
-        dueSoon: false,
-        recorded: true,
-        actualDate,
-        daysOutsideWindow: outside,
-        dataEnteredOn: r.dataEnteredOn ?? null,
-        verifiedOn: r.verifiedOn ?? null,
-      },
-    });
+    if (r.actualDate == null) {
+      throw new CalendarInputError(`Subject ${subjectCode}: visit ${r.visitCode} is recorded as done without a date`);
+    }
+    const actualDay = toDayNumber(r.actualDate);
+    if (target === null) {
+      push(makeEntry(subjectCode, visit, version, null, "completed_unanchored", false, r, r.actualDate, null), null, order);
+      continue;
+    }
+    const outside = daysOutsideWindow(actualDay, target - visit.windowBefore, target + visit.windowAfter);
+    const state: VisitState = outside === 0 ? "completed_in_window" : "completed_out_of_window";
+    push(makeEntry(subjectCode, visit, version, aDay, state, false, r, r.actualDate, outside), target, order);
   }
 
-  // Pending visits from the version in force today.
+  // Pending visits from the version in force on asOf. Anchors dated after asOf have not happened.
   const ended = input.status === "withdrawn" || input.status === "completed";
   const endDay = ended && input.endedOn ? toDayNumber(input.endedOn) : null;
   if (current && !(ended && endDay === null)) {
-    current.schedule.forEach((visit, order) => {
-      if (records.has(visit.code)) return;
-      const aDay = anchorDay(visit.anchor);
-      if (ended && (aDay === null || endDay === null || aDay + visit.dayOffset >= endDay)) return;
-      const { target, entry } = base(visit, current, aDay);
+    const schedule = current.schedule;
+    for (let order = 0; order < schedule.length; order++) {
+      const visit = schedule[order]!;
+      if (records.has(visit.code)) continue;
+      let aDay = anchorDayOf(visit.anchor);
+      if (aDay !== null && aDay > asOfDay) aDay = null;
+      if (ended && (aDay === null || endDay === null || aDay + visit.dayOffset >= endDay)) continue;
       let state: VisitState = "not_scheduled";
       let dueSoon = false;
-      if (target !== null) {
+      let target: number | null = null;
+      if (aDay !== null) {
+        target = aDay + visit.dayOffset;
         const start = target - visit.windowBefore;
-        const end = target + visit.windowAfter;
         if (asOfDay < start) {
           state = "upcoming";
           dueSoon = start - asOfDay <= input.dueSoonDays;
-        } else if (asOfDay <= end) state = "due";
+        } else if (asOfDay <= target + visit.windowAfter) state = "due";
         else state = "overdue";
       }
-      rows.push({
-        order,
-        targetDay: target ?? Number.POSITIVE_INFINITY,
-        entry: {
-          ...entry,
-          state,
-          dueSoon,
-          recorded: false,
-          actualDate: null,
-          daysOutsideWindow: null,
-          dataEnteredOn: null,
-          verifiedOn: null,
-        },
-      });
-    });
+      push(makeEntry(subjectCode, visit, current, aDay, state, dueSoon, null, null, null), target, order);
+    }
   }
 
-  rows.sort((a, b) => a.targetDay - b.targetDay || a.order - b.order || (a.entry.visitCode < b.entry.visitCode ? -1 : 1));
-  return { subjectCode, asOf, versionInForce, entries: rows.map((r) => r.entry) };
+  // Order by target date, then schedule order, then code (unscheduled last).
+  const idx = entries.map((_, i) => i);
+  idx.sort((a, b) => sortKeys[a]! - sortKeys[b]! || orders[a]! - orders[b]! || (entries[a]!.visitCode < entries[b]!.visitCode ? -1 : 1));
+  return { subjectCode, asOf, versionInForce, entries: idx.map((i) => entries[i]!) };
 }
