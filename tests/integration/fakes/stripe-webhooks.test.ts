@@ -1,9 +1,10 @@
 // Webhooks from the Stripe fake: signed like Stripe (checked with the official SDK's verifier),
 // retried with back-off, and the delivery faults (duplicate, out of order, failed transfer).
+import fs from "node:fs";
 import Stripe from "stripe";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { startStripeFake, type StripeFakeHandle } from "../../../docker-free-fakes/stripe.mjs";
-import { control, eventually, startWebhookReceiver } from "./helpers";
+import { control, eventually, startWebhookReceiver, tempDir } from "./helpers";
 
 const SECRET = "whsec_test_receiver_secret";
 let fake: StripeFakeHandle;
@@ -186,5 +187,30 @@ describe("delivery", () => {
     await stripe.transfers.createReversal(t.id);
     await flush();
     expect(events().map((e) => e.type)).toEqual(["transfer.reversed", "transfer.updated", "transfer.created"]);
+  });
+
+  it("keeps undelivered webhooks across a restart and delivers them afterwards", async () => {
+    const dir = tempDir("stripe-webhook-restart");
+    const options = { port: 0, dataDir: dir, webhookUrl: receiver.url, webhookSecret: SECRET, initialAccountState: "pending" as const, log: () => {} };
+    try {
+      const first = await startStripeFake({ ...options, autoDeliver: false });
+      const s1 = new Stripe("sk_test_x", { host: "127.0.0.1", port: first.port, protocol: "http", telemetry: false, maxNetworkRetries: 0 });
+      const account = await s1.accounts.create({ type: "custom" });
+      await control(first.url, "POST", `/_fake/accounts/${account.id}/verification`, { state: "verified" });
+      await first.close();
+      expect(receiver.received).toHaveLength(0);
+
+      const second = await startStripeFake({ ...options, autoDeliver: true });
+      try {
+        await eventually(() => receiver.received.length === 1, "delivery after restart");
+        const event = stripe.webhooks.constructEvent(receiver.received[0]!.body, receiver.received[0]!.signature, SECRET);
+        expect(event.type).toBe("account.updated");
+        expect((event.data.object as Stripe.Account).id).toBe(account.id);
+      } finally {
+        await second.close();
+      }
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
