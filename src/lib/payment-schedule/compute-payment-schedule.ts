@@ -1,5 +1,6 @@
 import { isSupportedCurrency } from "@/lib/money";
 import { localDate } from "./calendar";
+import { MoneySum } from "./money-sum";
 import { buildSiteLines, CycleBook, type SiteInput } from "./earned-lines";
 import { PriceBook } from "./pricing";
 import { computeProjection } from "./projection";
@@ -127,75 +128,112 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
   const currencyTotals = new Map<string, CurrencyTotals>();
   for (const input of siteInputs.values()) {
     const { site, asOf } = input;
-    const totals: SiteTotals = { ...emptyTotals(site.currency), siteId: site.id, asOf };
-    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: 0n, releasedMinor: 0n, balanceMinor: 0n, releaseLineKey: null, byCycle: [] };
-    const cyclesOfSite = new Map<string, CycleSummary>();
-    const ledgerByCycle = new Map<string, HoldbackLedger["byCycle"][number]>();
+    const sums = { gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum(), unapplied: new MoneySum(), withheld: new MoneySum(), released: new MoneySum() };
+    let lineCount = 0;
+    let releaseLineKey: string | null = null;
+    type CycleAcc = { period: EarnedLine["cycle"]; dueDate: string; lineCount: number; gross: MoneySum; overhead: MoneySum; holdback: MoneySum; net: MoneySum; paid: MoneySum; outstanding: MoneySum; overdue: MoneySum };
+    const cyclesOfSite = new Map<EarnedLine["cycle"], Map<string, CycleAcc>>();
+    const ledgerByCycle = new Map<string, { label: string; withheld: MoneySum; released: MoneySum }>();
     for (const l of perSite.get(site.id) as EarnedLine[]) {
       if (l.paidMinor > l.netMinor) {
         l.unappliedMinor = l.paidMinor - l.netMinor;
         l.paidMinor = l.netMinor;
       }
-      l.outstandingMinor = l.netMinor - l.paidMinor;
+      l.outstandingMinor = l.paidMinor === 0n ? l.netMinor : l.netMinor - l.paidMinor;
       l.partiallyPaid = l.paidMinor > 0n && l.outstandingMinor > 0n;
       const overdue = l.outstandingMinor > 0n && l.dueDate < asOf;
       l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
 
-      totals.grossMinor += l.grossMinor;
-      totals.overheadMinor += l.overheadMinor;
-      totals.holdbackMinor += l.holdbackMinor;
-      totals.netMinor += l.netMinor;
-      totals.paidMinor += l.paidMinor;
-      totals.outstandingMinor += l.outstandingMinor;
-      totals.unappliedMinor += l.unappliedMinor;
-      if (overdue) totals.overdueMinor += l.outstandingMinor;
-      totals.lineCount++;
-      if (l.holdbackMinor >= 0n) ledger.withheldMinor += l.holdbackMinor;
-      else {
-        ledger.releasedMinor -= l.holdbackMinor;
-        ledger.releaseLineKey = l.key;
-      }
+      sums.gross.add(l.grossMinor);
+      sums.overhead.add(l.overheadMinor);
+      sums.holdback.add(l.holdbackMinor);
+      sums.net.add(l.netMinor);
+      sums.paid.add(l.paidMinor);
+      sums.outstanding.add(l.outstandingMinor);
+      if (l.unappliedMinor !== 0n) sums.unapplied.add(l.unappliedMinor);
+      if (overdue) sums.overdue.add(l.outstandingMinor);
+      lineCount++;
+      if (l.holdbackMinor < 0n) {
+        sums.released.add(-l.holdbackMinor);
+        releaseLineKey = l.key;
+      } else sums.withheld.add(l.holdbackMinor);
 
-      const ck = `${l.cycle.label}|${l.dueDate}`;
-      let c = cyclesOfSite.get(ck);
+      let byDue = cyclesOfSite.get(l.cycle);
+      if (!byDue) {
+        byDue = new Map();
+        cyclesOfSite.set(l.cycle, byDue);
+      }
+      let c = byDue.get(l.dueDate);
       if (!c) {
-        c = { siteId: site.id, currency: site.currency, cycle: l.cycle, dueDate: l.dueDate, lineCount: 0, grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n, paidMinor: 0n, outstandingMinor: 0n, overdueMinor: 0n };
-        cyclesOfSite.set(ck, c);
+        c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
+        byDue.set(l.dueDate, c);
       }
       c.lineCount++;
-      c.grossMinor += l.grossMinor;
-      c.overheadMinor += l.overheadMinor;
-      c.holdbackMinor += l.holdbackMinor;
-      c.netMinor += l.netMinor;
-      c.paidMinor += l.paidMinor;
-      c.outstandingMinor += l.outstandingMinor;
-      if (overdue) c.overdueMinor += l.outstandingMinor;
+      c.gross.add(l.grossMinor);
+      c.overhead.add(l.overheadMinor);
+      c.holdback.add(l.holdbackMinor);
+      c.net.add(l.netMinor);
+      c.paid.add(l.paidMinor);
+      c.outstanding.add(l.outstandingMinor);
+      if (overdue) c.overdue.add(l.outstandingMinor);
 
       if (l.holdbackMinor !== 0n) {
         let h = ledgerByCycle.get(l.cycle.label);
         if (!h) {
-          h = { label: l.cycle.label, withheldMinor: 0n, releasedMinor: 0n, balanceMinor: 0n };
+          h = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
           ledgerByCycle.set(l.cycle.label, h);
         }
-        if (l.holdbackMinor > 0n) h.withheldMinor += l.holdbackMinor;
-        else h.releasedMinor -= l.holdbackMinor;
+        if (l.holdbackMinor > 0n) h.withheld.add(l.holdbackMinor);
+        else h.released.add(-l.holdbackMinor);
       }
     }
-    totals.earnedMinor = totals.grossMinor + totals.overheadMinor;
-    totals.holdbackWithheldMinor = ledger.withheldMinor;
-    totals.holdbackReleasedMinor = ledger.releasedMinor;
-    totals.heldBackMinor = ledger.withheldMinor - ledger.releasedMinor;
-    ledger.balanceMinor = totals.heldBackMinor;
+    const withheld = sums.withheld.value;
+    const released = sums.released.value;
+    const totals: SiteTotals = {
+      siteId: site.id,
+      asOf,
+      currency: site.currency,
+      grossMinor: sums.gross.value,
+      overheadMinor: sums.overhead.value,
+      holdbackMinor: sums.holdback.value,
+      netMinor: sums.net.value,
+      earnedMinor: sums.gross.value + sums.overhead.value,
+      holdbackWithheldMinor: withheld,
+      holdbackReleasedMinor: released,
+      heldBackMinor: withheld - released,
+      paidMinor: sums.paid.value,
+      outstandingMinor: sums.outstanding.value,
+      overdueMinor: sums.overdue.value,
+      unappliedMinor: sums.unapplied.value,
+      lineCount,
+    };
+    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: withheld, releasedMinor: released, balanceMinor: withheld - released, releaseLineKey, byCycle: [] };
     let running = 0n;
     for (const h of [...ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
-      running += h.withheldMinor - h.releasedMinor;
-      h.balanceMinor = running;
-      ledger.byCycle.push(h);
+      const w = h.withheld.value;
+      const r = h.released.value;
+      running += w - r;
+      ledger.byCycle.push({ label: h.label, withheldMinor: w, releasedMinor: r, balanceMinor: running });
     }
     siteTotals.push(totals);
     holdback.push(ledger);
-    for (const c of [...cyclesOfSite.values()].sort((a, b) => (a.cycle.start < b.cycle.start ? -1 : a.cycle.start > b.cycle.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0))) {
-      cycleSummaries.push(c);
+    const accs = [...cyclesOfSite.values()].flatMap((m) => [...m.values()]);
+    accs.sort((a, b) => (a.period.start < b.period.start ? -1 : a.period.start > b.period.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0));
+    for (const c of accs) {
+      cycleSummaries.push({
+        siteId: site.id,
+        currency: site.currency,
+        cycle: c.period,
+        dueDate: c.dueDate,
+        lineCount: c.lineCount,
+        grossMinor: c.gross.value,
+        overheadMinor: c.overhead.value,
+        holdbackMinor: c.holdback.value,
+        netMinor: c.net.value,
+        paidMinor: c.paid.value,
+        outstandingMinor: c.outstanding.value,
+        overdueMinor: c.overdue.value,
+      });
     }
     // Amounts in different currencies are never added together.
     let ct = currencyTotals.get(site.currency);
@@ -207,8 +245,6 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
     ct.siteCount++;
   }
 
-  const asOfBySite = new Map<string, string>();
-  for (const [id, input] of siteInputs) asOfBySite.set(id, input.asOf);
   return {
     asOf: snapshot.asOf,
     lines,

@@ -44,11 +44,11 @@ export interface EarnedLine {
   netMinor: bigint;
   /** A screen failure beyond the cap: zero-value until later enrolment lifts the cap. */
   overCap: boolean;
-  /** The fee the line would carry without the cap (screen failures only). */
-  cappedFeeMinor?: bigint;
+  /** The fee the line would carry without the cap (screen failures only, else null). */
+  cappedFeeMinor: bigint | null;
   /** Set when an enrolment lifted the cap: that enrolment's date and subject. */
-  capLiftedOn?: string;
-  capLiftedBySubjectId?: string;
+  capLiftedOn: string | null;
+  capLiftedBySubjectId: string | null;
   cycle: CyclePeriod;
   dueDate: string;
   paidMinor: bigint;

@@ -1,0 +1,138 @@
+// Deterministic invented study for benchmarks: sites, budgets with one amendment, subjects, visits,
+// payments and upcoming calendar visits. Same options → same snapshot (seeded PRNG, no clock).
+import { addDays } from "../../src/lib/payment-schedule/calendar";
+import { priceFee } from "../../src/lib/payment-schedule/pricing";
+import type { BudgetVersion, PaymentScheduleSnapshot, RecordedVisit, Subject } from "../../src/lib/payment-schedule/snapshot";
+
+export interface GenerateStudyOptions {
+  sites?: number;
+  subjects?: number;
+  visits?: number;
+  seed?: number;
+  asOf?: string;
+}
+
+// mulberry32: small, fast, good enough for test data.
+function prng(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+const CURRENCIES: [string, string, bigint][] = [
+  ["EUR", "Europe/Berlin", 1n],
+  ["USD", "America/Chicago", 1n],
+  ["GBP", "Europe/London", 1n],
+  ["JPY", "Asia/Tokyo", 1n],
+  ["CHF", "Europe/Zurich", 1n],
+  ["SEK", "Europe/Stockholm", 10n],
+  ["KWD", "Asia/Kuwait", 1n],
+];
+// Visit codes and their day offsets from enrolment (an invented follow-up schedule).
+const VISITS: [string, number][] = [
+  ["SCR", 0], ["IMP", 14], ["D01", 15], ["W01", 21], ["W02", 28], ["M01", 44], ["M02", 74], ["M03", 104],
+  ["M06", 194], ["M09", 284], ["M12", 379], ["M15", 469], ["M18", 559], ["M24", 739], ["M30", 919],
+  ["M36", 1099], ["M42", 1279], ["M48", 1459], ["M54", 1639], ["M60", 1819],
+];
+
+export function generateStudy(options: GenerateStudyOptions = {}): PaymentScheduleSnapshot {
+  const { sites: siteCount = 200, subjects: subjectCount = 10_000, visits: visitTarget = 150_000, seed = 42, asOf = "2026-12-01" } = options;
+  const rnd = prng(seed);
+  const int = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
+  const snapshot = {
+    asOf,
+    sites: [],
+    budgetVersions: [],
+    passThroughInvoices: [],
+    subjects: [],
+    visits: [],
+    payments: [],
+    inPaymentRun: [],
+    projection: { scheduledVisits: [], newSubjectVisitPlan: VISITS.slice(0, 8).map(([visitCode, dayOffset]) => ({ visitCode, dayOffset })), horizonMonths: 12 },
+  } satisfies PaymentScheduleSnapshot & { projection: { scheduledVisits: unknown[] } };
+  const payments = snapshot.payments as { lineKey: string; amountMinor: bigint; paidOn: string }[];
+
+  const versionsBySite = new Map<string, BudgetVersion[]>();
+  for (let i = 0; i < siteCount; i++) {
+    const [currency, timeZone, scale] = CURRENCIES[i % CURRENCIES.length] as [string, string, bigint];
+    const unit = currency === "JPY" ? 150n : currency === "KWD" ? 300n : 100n * scale; // minor units per "euro"
+    const id = `site-${String(i + 1).padStart(3, "0")}`;
+    const activatedOn = addDays("2023-01-01", int(0, 540));
+    const closedOutOn = i % 20 === 19 ? addDays(asOf, -int(10, 120)) : null;
+    snapshot.sites.push({ id, code: `S${String(i + 1).padStart(3, "0")}`, currency, timeZone, activatedOn, enrolmentClosedOn: closedOutOn, closedOutOn } as never);
+    const fees: Record<string, bigint> = {};
+    for (const [code] of VISITS) fees[code] = BigInt(int(150, 900)) * unit;
+    const common = {
+      siteId: id,
+      startupFeeMinor: 5000n * unit,
+      milestoneFees: [
+        { kind: "site_activated" as const, amountMinor: 1000n * unit },
+        { kind: "first_implant" as const, amountMinor: 2000n * unit },
+        { kind: "nth_enrolled" as const, n: 10, amountMinor: 1500n * unit },
+        { kind: "nth_enrolled" as const, n: 50, amountMinor: 3000n * unit },
+        { kind: "close_out" as const, amountMinor: 2500n * unit },
+      ],
+      screenFailureFeeMinor: 250n * unit,
+      screenFailureCap: { perEnrolled: 4 },
+      overheadBps: int(15, 30) * 100,
+      holdbackBps: int(5, 10) * 100,
+      cycle: i % 2 === 0 ? ("monthly" as const) : ("quarterly" as const),
+      netDays: i % 3 === 0 ? 45 : 30,
+      trigger: (["visit_completed", "data_entered", "monitor_verified"] as const)[i % 3] as BudgetVersion["trigger"],
+    };
+    const v1: BudgetVersion = { ...common, id: `${id}-b1`, versionNumber: 1, effectiveFrom: addDays(activatedOn, -30), visitFees: fees };
+    const v2: BudgetVersion = { ...common, id: `${id}-b2`, versionNumber: 2, effectiveFrom: addDays(activatedOn, int(300, 700)), visitFees: { ...fees, M12: (fees.M12 as bigint) + 100n * unit } };
+    snapshot.budgetVersions.push(v1 as never, v2 as never);
+    versionsBySite.set(id, [v1, v2]);
+    snapshot.passThroughInvoices.push({ id: `${id}-irb`, siteId: id, approvedOn: addDays(activatedOn, -10), amountMinor: 1200n * unit, description: "Ethics committee fee" } as never);
+  }
+
+  // Enrolled subjects carry the visits; the rest are screen failures.
+  const enrolledShare = 0.8;
+  const enrolledCount = Math.round(subjectCount * enrolledShare);
+  const visitsPerSubject = Math.max(1, Math.round(visitTarget / enrolledCount));
+  let visitId = 0;
+  for (let j = 0; j < subjectCount; j++) {
+    const site = snapshot.sites[j % siteCount] as unknown as { id: string; activatedOn: string; closedOutOn: string | null };
+    const id = `subj-${String(j + 1).padStart(5, "0")}`;
+    const screenedOn = addDays(site.activatedOn, int(5, 900));
+    const enrolled = j < enrolledCount;
+    const subject: Subject = { id, siteId: site.id, code: `K-${String(j + 1).padStart(5, "0")}`, screenedOn };
+    if (!enrolled) subject.screenFailedOn = addDays(screenedOn, int(1, 20));
+    else {
+      subject.enrolledOn = addDays(screenedOn, int(1, 20));
+      subject.implantedOn = addDays(subject.enrolledOn, 14);
+    }
+    (snapshot.subjects as Subject[]).push(subject);
+    if (!enrolled) continue;
+    const versions = versionsBySite.get(site.id) as BudgetVersion[];
+    for (let k = 0; k < VISITS.length; k++) {
+      const [code, offset] = VISITS[k] as [string, number];
+      const target = addDays(subject.enrolledOn as string, offset);
+      if (k >= visitsPerSubject || target > asOf) {
+        if (target > asOf) snapshot.projection.scheduledVisits.push({ subjectId: id, visitCode: code, targetDate: target } as never);
+        continue;
+      }
+      const serviceDate = addDays(target, int(-3, 3));
+      const done = rnd() < 0.95;
+      const visit: RecordedVisit = { id: `visit-${++visitId}`, subjectId: id, visitCode: code, serviceDate, status: done ? "done" : "missed" };
+      if (done) {
+        visit.dataEnteredOn = addDays(serviceDate, int(0, 14));
+        if (rnd() < 0.85) visit.verifiedOn = addDays(visit.dataEnteredOn, int(5, 60));
+      }
+      (snapshot.visits as RecordedVisit[]).push(visit);
+      // Pay most old visits at their net, as the sponsor would have.
+      if (done && visit.verifiedOn && visit.verifiedOn < addDays(asOf, -120) && rnd() < 0.9) {
+        const v = versions[1]!.effectiveFrom <= serviceDate ? versions[1]! : versions[0]!;
+        const fee = v.visitFees[code] as bigint;
+        payments.push({ lineKey: `visit:${visit.id}`, amountMinor: priceFee(fee, v.overheadBps, v.holdbackBps).netMinor, paidOn: addDays(visit.verifiedOn, 60) });
+      }
+    }
+  }
+  return snapshot;
+}
