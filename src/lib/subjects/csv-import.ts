@@ -1,5 +1,5 @@
 import Papa from "papaparse";
-import type { IsoDate, VisitSchedule } from "@/lib/protocol/visit-schedule";
+import type { AnchorEvent, IsoDate, VisitSchedule } from "@/lib/protocol/visit-schedule";
 import { isCalendarDate, toDayNumber } from "@/lib/visits/calendar-date";
 import { siteCodeSchema, subjectCodeSchema, subjectCodeSchemaForSite } from "./subject-code";
 import { isSubjectStatus, subjectStatuses, type SubjectStatus } from "./subject-states";
@@ -17,6 +17,8 @@ import { isSubjectStatus, subjectStatuses, type SubjectStatus } from "./subject-
  * - Without a row_type column every row is a subject row (and visit columns are not allowed).
  * - status: screening, screen_failed, enrolled, implanted, follow_up, completed, withdrawn.
  * - Dates are YYYY-MM-DD and must be real; consent ≤ screening ≤ enrolled ≤ implant.
+ * - A visit code must be in the schedule of some protocol version; a done visit needs the
+ *   subject's anchor date for it (an implant-anchored visit needs an implant date).
  * - Blank lines are ignored. Row numbers in errors count the header as row 1.
  *
  * Import is all-or-nothing: either every row parses, or the result lists every problem found as
@@ -139,6 +141,9 @@ export function parseSubjectImport(csv: string, options: SubjectImportOptions): 
   if (errors.length > 0) return { ok: false, errors };
 
   const knownVisitCodes = new Set(options.schedules.flatMap((s) => s.map((v) => v.code)));
+  // The anchor events each code hangs on, over all versions (normally one).
+  const anchorsByCode = new Map<string, Set<AnchorEvent>>();
+  for (const s of options.schedules) for (const v of s) anchorsByCode.set(v.code, (anchorsByCode.get(v.code) ?? new Set()).add(v.anchor));
   const allowedSites = options.allowedSiteCodes ? new Set(options.allowedSiteCodes) : null;
   const todayDay = options.today ? toDayNumber(options.today) : null;
 
@@ -189,7 +194,7 @@ export function parseSubjectImport(csv: string, options: SubjectImportOptions): 
       const outcome = get("outcome").toLowerCase();
       if (outcome !== "done" && outcome !== "missed") fail(row, "outcome", `outcome must be done or missed, got "${get("outcome")}"`);
       const visitDate = date("visit_date", outcome === "done");
-      if (subjectCode !== "" && visitCode !== "" && (outcome === "done" || outcome === "missed") && visitDate !== undefined) {
+      if (subjectCode !== "" && knownVisitCodes.has(visitCode) && (outcome === "done" || outcome === "missed") && visitDate !== undefined) {
         pendingVisits.push({ row, subjectCode, siteCode, visit: { row, visitCode, visitDate, outcome } });
       }
       continue;
@@ -296,6 +301,16 @@ export function parseSubjectImport(csv: string, options: SubjectImportOptions): 
     }
     if (subject.visits.some((v) => v.visitCode === visit.visitCode)) {
       fail(row, "visit_code", `Visit ${visit.visitCode} of ${subjectCode} appears twice`);
+      continue;
+    }
+    const anchorDates: Record<AnchorEvent, IsoDate | null> = {
+      consent: subject.consentDate,
+      enrolment: subject.enrolmentDate,
+      implant: subject.implantDate,
+    };
+    const anchorsOfCode = [...(anchorsByCode.get(visit.visitCode) ?? [])];
+    if (visit.outcome === "done" && !anchorsOfCode.some((a) => anchorDates[a] !== null)) {
+      fail(row, "visit_code", `Visit ${visit.visitCode} counts from the ${anchorsOfCode.join("/")} date, which subject ${subjectCode} does not have`);
       continue;
     }
     if (visit.visitDate && visit.visitDate < subject.consentDate) {

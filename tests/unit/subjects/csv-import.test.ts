@@ -112,6 +112,9 @@ describe("subject CSV import", () => {
           "visit,DE01-002,,,,,,,,,,SCR,2025-01-06,done", // screen failed
           "visit,DE01-001,,,,,,,,,,W1,2024-12-30,done", // before consent
           "visit,DE01-001,,follow_up,,,,,,,,M6,2025-06-14,done", // subject column on a visit row
+          good[3]!,
+          "visit,DE01-004,,,,,,,,,,W1,2025-06-25,done", // implant-anchored, but no implant yet
+          "visit,DE01-004,,,,,,,,,,SCR,2025-06-21,done", // consent-anchored: fine
         ),
         options,
       ),
@@ -124,6 +127,7 @@ describe("subject CSV import", () => {
       [8, "visit_code"],
       [9, "visit_date"],
       [10, "status"],
+      [12, "visit_code"],
     ]);
   });
 
