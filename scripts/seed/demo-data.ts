@@ -3,7 +3,9 @@
 import type { Role } from "../../src/lib/auth/roles";
 import type { SiteStatus } from "../../src/lib/sites/site-status";
 
-export const DEMO_PASSWORD = "kestrel-demo-2026";
+import signIns from "./demo-sign-ins.json";
+
+export const DEMO_PASSWORD: string = signIns.password;
 
 export const demoStudy = {
   code: "KESTREL-VP",
@@ -66,14 +68,4 @@ export const demoPeople: DemoPerson[] = [
 ];
 
 /** One sign-in per role, printed by `npm start` and used by the browser tests. */
-export const demoSignInsByRole: Record<Role, string> = {
-  sponsor_admin: "admin@kestrel-vp.example",
-  protocol_writer: "writer@kestrel-vp.example",
-  medical_reviewer: "reviewer@kestrel-vp.example",
-  investigator: "investigator.de01@kestrel-vp.example",
-  coordinator: "coordinator.de01@kestrel-vp.example",
-  site_finance: "finance.de01@kestrel-vp.example",
-  sponsor_finance: "payments@kestrel-vp.example",
-  monitor: "monitor@kestrel-vp.example",
-  auditor: "auditor@kestrel-vp.example",
-};
+export const demoSignInsByRole = signIns.byRole as Record<Role, string>;

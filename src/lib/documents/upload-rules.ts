@@ -41,7 +41,10 @@ export function uploadRequestSchema(maxBytes: number = DEFAULT_MAX_UPLOAD_BYTES)
       sha256: z.string().regex(/^[0-9a-f]{64}$/, "SHA-256 must be 64 lower-case hex digits"),
     })
     .refine(
-      (r) => (allowedContentTypes[r.contentType as AllowedContentType] as readonly string[]).some((ext) => r.fileName.toLowerCase().endsWith(ext)),
+      (r) => {
+        const exts = allowedContentTypes[r.contentType as AllowedContentType] as readonly string[] | undefined;
+        return !exts || exts.some((ext) => r.fileName.toLowerCase().endsWith(ext));
+      },
       { path: ["fileName"], message: "The file name's extension does not match its type" },
     );
 }

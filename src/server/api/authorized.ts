@@ -35,6 +35,8 @@ export type OperationContext<I> = {
   siteIds: "all" | string[];
   tx: Tx;
   audit: (entry: AuditEntry) => Promise<void>;
+  /** Say that this mutation changed nothing (an idempotent repeat), so no audit event is due. */
+  unchanged: () => void;
 };
 
 export function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown, where: string): z.infer<S> {
@@ -55,7 +57,7 @@ export async function runAuthorized<I, R>(
     const scope = await config.scope(input, tx);
     const permission = config.permission;
     if (permission === "signed_in") {
-      return handler({ actor, input, scope, siteIds: [], tx, audit: async (entry) => recordAudit(tx, actor, entry) });
+      return handler({ actor, input, scope, siteIds: [], tx, audit: async (entry) => recordAudit(tx, actor, entry), unchanged: () => undefined });
     }
     if (!canSomewhere(actor, permission, scope.studyId)) throw forbidden();
     const allowed = scope.siteId ? can(actor, permission, scope) : config.siteFiltered || can(actor, permission, scope);
@@ -63,6 +65,7 @@ export async function runAuthorized<I, R>(
     if (!allowed) throw scope.siteId ? notFound() : forbidden();
 
     let audited = 0;
+    let unchanged = false;
     const ctx: OperationContext<I> = {
       actor,
       input,
@@ -73,9 +76,12 @@ export async function runAuthorized<I, R>(
         audited++;
         await recordAudit(tx, actor, { studyId: scope.studyId, siteId: scope.siteId ?? null, ...entry });
       },
+      unchanged: () => {
+        unchanged = true;
+      },
     };
     const result = await handler(ctx);
-    if (config.mutation && audited === 0) {
+    if (config.mutation && audited === 0 && !unchanged) {
       throw new AppError("internal", `Mutation with permission ${permission} wrote no audit event.`);
     }
     return result;

@@ -8,11 +8,10 @@ import { parseOrThrow, runAuthorized, type OperationConfig, type OperationContex
 // Wraps every JSON route handler under src/app/api/v1: the same authorisation as server actions,
 // zod for params, query and body, and typed errors as { error: { code, message, fields? } }.
 
-type Schemas = { params?: z.ZodType; query?: z.ZodType; body?: z.ZodType };
-type Out<S, K extends keyof Schemas> = S extends { [P in K]: infer T } ? (T extends z.ZodType ? z.infer<T> : undefined) : undefined;
-export type RouteInput<S extends Schemas> = { params: Out<S, "params">; query: Out<S, "query">; body: Out<S, "body"> };
+type Inferred<T> = T extends z.ZodType ? z.infer<T> : undefined;
+export type RouteInput<P, Q, B> = { params: Inferred<P>; query: Inferred<Q>; body: Inferred<B> };
 
-type RouteConfig<S extends Schemas> = S & Omit<OperationConfig<RouteInput<S>>, "mutation"> & { status?: number };
+type RouteConfig<P, Q, B> = { params?: P; query?: Q; body?: B } & Omit<OperationConfig<RouteInput<P, Q, B>>, "mutation"> & { status?: number };
 
 type RouteContext = { params: Promise<Record<string, string | string[]>> };
 
@@ -41,9 +40,9 @@ async function readBody(req: NextRequest): Promise<unknown> {
   }
 }
 
-export function apiRoute<S extends Schemas, R>(
-  config: RouteConfig<S>,
-  handler: (ctx: OperationContext<RouteInput<S>> & { req: NextRequest }) => Promise<R | Response>,
+export function apiRoute<P extends z.ZodType | undefined = undefined, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined, R = unknown>(
+  config: RouteConfig<P, Q, B>,
+  handler: (ctx: OperationContext<RouteInput<P, Q, B>> & { req: NextRequest }) => Promise<R | Response>,
 ) {
   return async (req: NextRequest, routeContext: RouteContext): Promise<Response> => {
     try {
@@ -54,7 +53,7 @@ export function apiRoute<S extends Schemas, R>(
         params: config.params ? parseOrThrow(config.params, rawParams, "address") : undefined,
         query: config.query ? parseOrThrow(config.query, Object.fromEntries(req.nextUrl.searchParams), "query") : undefined,
         body: config.body ? parseOrThrow(config.body, await readBody(req), "request body") : undefined,
-      } as RouteInput<S>;
+      } as RouteInput<P, Q, B>;
       const mutation = req.method !== "GET" && req.method !== "HEAD";
       const result = await runAuthorized(actor, input, { ...config, mutation }, (ctx) => handler({ ...ctx, req }));
       if (result instanceof Response) return result;

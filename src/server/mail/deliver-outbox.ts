@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { db } from "@/server/db/client";
 import { env } from "@/env";
+import type { Transporter } from "nodemailer";
 import { mailTransport } from "./transport";
 
 type Claimed = { id: string; to_address: string; subject: string; text_body: string; html_body: string | null; message_id: string; attempts: number };
@@ -14,7 +15,8 @@ const LEASE_SECONDS = 60;
  * it is marked sent right after the SMTP server accepts it. A crash between acceptance and the
  * mark can at worst resend with the same Message-ID (receivers de-duplicate on it).
  */
-export async function deliverOutbox({ batchSize = 20 }: { batchSize?: number } = {}) {
+export async function deliverOutbox({ batchSize = 20, transport }: { batchSize?: number; transport?: Transporter } = {}) {
+  const sender = transport ?? mailTransport();
   let sent = 0;
   let failed = 0;
   for (;;) {
@@ -31,7 +33,7 @@ export async function deliverOutbox({ batchSize = 20 }: { batchSize?: number } =
     if (claimed.rows.length === 0) break;
     for (const m of claimed.rows) {
       try {
-        await mailTransport().sendMail({
+        await sender.sendMail({
           from: env.MAIL_FROM,
           to: m.to_address,
           subject: m.subject,

@@ -13,8 +13,12 @@ export const POST = apiRoute(
       return { studyId: doc.studyId, siteId: doc.siteId };
     },
   },
-  async ({ tx, input, actor, audit }) => {
+  async ({ tx, input, actor, audit, unchanged }) => {
     const doc = await getDocumentById(tx, { id: input.params.documentId });
+    if (doc.state === "stored") {
+      unchanged();
+      return { document: doc };
+    }
     if (doc.uploaderId !== actor.userId) throw new AppError("forbidden", "Only the person who uploaded a file can complete its upload.");
     const result = await completeUpload(tx, doc);
     await audit({ action: result.state === "stored" ? "document.stored" : "document.checksum_mismatch", entityType: "document", entityId: doc.id, before: { state: doc.state }, after: { state: result.state } });

@@ -1,0 +1,90 @@
+import { and, count, desc, eq, isNull } from "drizzle-orm";
+import { db } from "@/server/db/client";
+import { auditEvents, memberships, sites, users } from "@/server/db/schema";
+import { listSitesForStudy } from "@/server/studies/queries";
+import { accessibleSiteIds, type Actor } from "@/lib/auth/authorize";
+import type { Role } from "@/lib/auth/roles";
+import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
+import { SiteStatusChip } from "@/components/site-status-chip";
+
+// Home panels by role. Each capability adds the panel that shows a person their pending work.
+export type HomePanel = {
+  key: string;
+  title: string;
+  roles: Role[];
+  Component: (props: { studyId: string; actor: Actor }) => Promise<React.ReactNode>;
+};
+
+async function SitesByStatus({ studyId }: { studyId: string }) {
+  const rows = await db.select({ status: sites.status, n: count() }).from(sites).where(eq(sites.studyId, studyId)).groupBy(sites.status);
+  const by = new Map(rows.map((r) => [r.status, r.n]));
+  return (
+    <table className="table-dense">
+      <tbody>
+        {siteStatuses.map((s) => (
+          <tr key={s}>
+            <td>{siteStatusLabels[s]}</td>
+            <td className="amount">{by.get(s) ?? 0}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+async function PendingInvitations({ studyId }: { studyId: string }) {
+  const rows = await db
+    .selectDistinct({ name: users.name, email: users.email })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studyId, studyId), isNull(memberships.revokedAt), isNull(users.passwordHash)));
+  if (rows.length === 0) return <p className="text-sm">Everyone invited has set a password.</p>;
+  return (
+    <ul className="text-sm">
+      {rows.map((r) => (
+        <li key={r.email}>
+          {r.name} <span className="text-muted">({r.email})</span>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+async function LatestAudit({ studyId }: { studyId: string }) {
+  const rows = await db.select().from(auditEvents).where(eq(auditEvents.studyId, studyId)).orderBy(desc(auditEvents.id)).limit(6);
+  if (rows.length === 0) return <p className="text-sm">No recorded changes yet.</p>;
+  return (
+    <ul className="text-sm">
+      {rows.map((r) => (
+        <li key={r.id}>
+          <span className="font-mono text-xs">{r.at.toISOString().slice(0, 16).replace("T", " ")} UTC</span> {r.actorName}: {r.action}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+async function MySites({ studyId, actor }: { studyId: string; actor: Actor }) {
+  const rows = await listSitesForStudy(db, { studyId, siteIds: accessibleSiteIds(actor, "sites.read", studyId) });
+  return (
+    <ul className="flex flex-col gap-1 text-sm">
+      {rows.map((s) => (
+        <li key={s.id} className="flex items-center gap-2">
+          <span className="font-mono">{s.code}</span> {s.name} <SiteStatusChip status={s.status} />
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export const homePanels: HomePanel[] = [
+  { key: "sites-by-status", title: "Sites by status", roles: ["sponsor_admin"], Component: SitesByStatus },
+  { key: "pending-invitations", title: "Invitations not yet accepted", roles: ["sponsor_admin"], Component: PendingInvitations },
+  { key: "latest-audit", title: "Latest recorded changes", roles: ["auditor", "sponsor_admin"], Component: LatestAudit },
+  {
+    key: "my-sites",
+    title: "Your sites",
+    roles: ["investigator", "coordinator", "site_finance", "monitor", "protocol_writer", "medical_reviewer", "sponsor_finance"],
+    Component: MySites,
+  },
+];

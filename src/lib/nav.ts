@@ -1,0 +1,16 @@
+import type { Permission } from "@/lib/auth/roles";
+
+// The navigation: each section shows only to people who hold its permission somewhere in the study.
+// A capability adds its section here when its pages exist.
+export type NavItem = { key: string; label: string; segment: string; permission: Permission; icon: NavIcon };
+export type NavIcon = "home" | "protocol" | "sites" | "subjects" | "visits" | "budgets" | "payments" | "documents" | "people" | "audit";
+
+export const navItems: NavItem[] = [
+  { key: "home", label: "Home", segment: "", permission: "study.read", icon: "home" },
+  { key: "sites", label: "Sites", segment: "sites", permission: "sites.read", icon: "sites" },
+  { key: "documents", label: "Documents", segment: "documents", permission: "documents.read", icon: "documents" },
+  { key: "people", label: "People", segment: "people", permission: "people.read", icon: "people" },
+  { key: "audit", label: "Audit", segment: "audit", permission: "audit.read", icon: "audit" },
+];
+
+export const studyPath = (studyId: string, segment = "") => `/studies/${studyId}${segment ? `/${segment}` : ""}`;
