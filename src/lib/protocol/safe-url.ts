@@ -7,13 +7,14 @@ export const allowedLinkProtocols = ["http:", "https:", "mailto:"] as const;
  * The normalised href if it is an absolute http/https/mailto URL, otherwise null.
  * Browsers ignore ASCII tab/newline anywhere in a URL and trim C0 controls and spaces at
  * its ends, so "java\tscript:" means "javascript:": we strip the same characters before
- * looking at the scheme, and reject anything the URL parser does not accept.
+ * looking at the scheme (anything else before it fails the scheme test), and reject
+ * anything the URL parser does not accept. The parser's normalised form is returned.
  */
 export function safeHref(raw: unknown): string | null {
   if (typeof raw !== "string") return null;
-  // URLs legitimately carry no raw whitespace or control characters: drop them all.
+  // As a browser does: tab, CR and LF vanish anywhere; C0 controls and spaces are trimmed at the ends.
   // eslint-disable-next-line no-control-regex
-  const cleaned = raw.replace(/[\u0000-\u0020\u007f-\u00a0\u1680\u2000-\u200f\u2028\u2029\u202f\u205f\u3000\ufeff]/g, "");
+  const cleaned = raw.replace(/[\t\n\r]/g, "").replace(/^[\u0000-\u0020\u00a0\ufeff]+|[\u0000-\u0020\u00a0\ufeff]+$/g, "");
   if (!/^(https?|mailto):/i.test(cleaned)) return null;
   let url: URL;
   try {

@@ -178,7 +178,11 @@ describe("sanitizeProtocolDoc / safeHref", () => {
   it("normalises allowed URLs and refuses the rest", () => {
     expect(safeHref("HTTPS://Example.org")).toBe("https://example.org/");
     expect(safeHref("mailto:a@example.org")).toBe("mailto:a@example.org");
+    expect(safeHref(" https://example.org/a b ")).toBe("https://example.org/a%20b");
+    expect(safeHref("ht\ttps://example.org")).toBe("https://example.org/"); // a browser reads it the same way
+    expect(safeHref("mailto:office@example.org?subject=Protocol change")).toBe("mailto:office@example.org?subject=Protocol%20change");
     expect(safeHref("https:")).toBeNull();
+    expect(safeHref("https ://example.org")).toBeNull();
     expect(safeHref("ftp://example.org")).toBeNull();
     expect(safeHref("/relative")).toBeNull();
     expect(safeHref(undefined)).toBeNull();
