@@ -107,7 +107,8 @@ interface IndexedSchedule {
   byCode: Map<string, { visit: ScheduledVisit; order: number }>;
 }
 
-// Schedules are shared by thousands of subjects: index each one once.
+// Schedules are shared by thousands of subjects: index each one once. Inputs are treated as
+// immutable (a schedule or versions array changed after use would keep its old index).
 const scheduleIndex = new WeakMap<VisitSchedule, IndexedSchedule>();
 function indexSchedule(schedule: VisitSchedule): IndexedSchedule {
   let idx = scheduleIndex.get(schedule);
@@ -118,7 +119,10 @@ function indexSchedule(schedule: VisitSchedule): IndexedSchedule {
   return idx;
 }
 
-/** The version in force on `date`: the latest `inForceFrom` on or before it (null if none yet). */
+/**
+ * The version in force on `date`: the latest `inForceFrom` on or before it (null if none yet);
+ * of two approved on the same day, the later in the list.
+ */
 export function versionInForceOn<V extends { inForceFrom: IsoDate }>(versions: readonly V[], date: IsoDate): V | null {
   const day = toDayNumber(date);
   let best: V | null = null;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { addDays, format } from "date-fns";
+import fc from "fast-check";
+import { addDays, differenceInCalendarDays, format } from "date-fns";
 import { CalendarInputError, computeSubjectCalendar, versionInForceOn, type SubjectCalendarInput } from "@/lib/visits/subject-calendar";
 import { anchors, versions } from "./fixtures";
 
@@ -189,5 +190,31 @@ describe("anchors and subject states", () => {
     expect(() => computeSubjectCalendar(base({ recordedVisits: [{ visitCode: "M9", versionId: "pv-1", status: "done", actualDate: "2025-10-01" }] }))).toThrow(/not in the schedule of protocol version 1.0/);
     expect(() => computeSubjectCalendar(base({ recordedVisits: [{ visitCode: "W1", versionId: "pv-1", status: "done" }] }))).toThrow(/without a date/);
     expect(() => computeSubjectCalendar(base({ dueSoonDays: -1 }))).toThrow(/horizon/);
+  });
+});
+
+describe("property: states follow the window computed with date-fns", () => {
+  it("upcoming before the window, due inside, overdue after; in/out of window for done visits", () => {
+    const local = (iso: string) => new Date(Number(iso.slice(0, 4)), Number(iso.slice(5, 7)) - 1, Number(iso.slice(8, 10)));
+    const day = fc.date({ min: new Date(2024, 5, 21), max: new Date(2030, 11, 31), noInvalidDate: true }).map((d) => format(d, "yyyy-MM-dd"));
+    fc.assert(
+      fc.property(day, fc.integer({ min: 0, max: 800 }), fc.integer({ min: -40, max: 40 }), (implant, daysLater, jitter) => {
+        const asOf = refAdd(implant, daysLater);
+        const input = base({ anchors: { consentDate: refAdd(implant, -20), enrolmentDate: refAdd(implant, -10), implantDate: implant }, asOf });
+        const m3 = entry(input, "M3"); // day 90, version-dependent window
+        const width = m3.versionId === "pv-1" ? 14 : 21;
+        const start = refAdd(implant, 90 - width);
+        const end = refAdd(implant, 90 + width);
+        const expected = differenceInCalendarDays(local(asOf), local(start)) < 0 ? "upcoming" : differenceInCalendarDays(local(asOf), local(end)) <= 0 ? "due" : "overdue";
+        if (m3.state !== expected || m3.windowStart !== start || m3.windowEnd !== end) return false;
+        const actualDate = refAdd(implant, 90 + jitter);
+        const done = entry({ ...input, recordedVisits: [{ visitCode: "M3", versionId: "pv-1", status: "done", actualDate }] }, "M3");
+        const early = differenceInCalendarDays(local(actualDate), local(refAdd(implant, 76)));
+        const late = differenceInCalendarDays(local(actualDate), local(refAdd(implant, 104)));
+        const days = early < 0 ? early : late > 0 ? late : 0;
+        return done.daysOutsideWindow === days && done.state === (days === 0 ? "completed_in_window" : "completed_out_of_window");
+      }),
+      { numRuns: 1000 },
+    );
   });
 });
