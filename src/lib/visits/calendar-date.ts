@@ -3,8 +3,6 @@ import type { IsoDate, ScheduledVisit } from "@/lib/protocol/visit-schedule";
 // Calendar dates as integer day numbers (days since 1970-01-01, proleptic Gregorian).
 // No Date objects and no time zones: a date string names a day at the site, nothing more.
 
-const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
-
 function isLeapYear(y: number): boolean {
   return (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
 }
@@ -35,21 +33,36 @@ export class InvalidCalendarDateError extends Error {
   }
 }
 
+// Parses YYYY-MM-DD with char codes (hot path: millions of calls per study); -1 when invalid.
+function parseIso(s: string): number {
+  if (s.length !== 10 || s.charCodeAt(4) !== 45 || s.charCodeAt(7) !== 45) return -1;
+  let y = 0;
+  for (let i = 0; i < 4; i++) {
+    const c = s.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    y = y * 10 + c;
+  }
+  const m1 = s.charCodeAt(5) - 48;
+  const m2 = s.charCodeAt(6) - 48;
+  const d1 = s.charCodeAt(8) - 48;
+  const d2 = s.charCodeAt(9) - 48;
+  if (m1 < 0 || m1 > 9 || m2 < 0 || m2 > 9 || d1 < 0 || d1 > 9 || d2 < 0 || d2 > 9) return -1;
+  const m = m1 * 10 + m2;
+  const d = d1 * 10 + d2;
+  if (m < 1 || m > 12 || d < 1 || d > daysInMonth(y, m)) return -1;
+  return y * 10000 + m * 100 + d;
+}
+
 /** True when `s` is a real calendar date written YYYY-MM-DD (2023-02-29 is not). */
 export function isCalendarDate(s: unknown): s is IsoDate {
-  if (typeof s !== "string") return false;
-  const m = ISO_DATE.exec(s);
-  if (!m) return false;
-  const y = Number(m[1]);
-  const mo = Number(m[2]);
-  const d = Number(m[3]);
-  return mo >= 1 && mo <= 12 && d >= 1 && d <= daysInMonth(y, mo);
+  return typeof s === "string" && parseIso(s) >= 0;
 }
 
 /** Day number of an ISO date; throws on anything that is not a real date. */
 export function toDayNumber(date: IsoDate): number {
-  if (!isCalendarDate(date)) throw new InvalidCalendarDateError(date);
-  return daysFromCivil(Number(date.slice(0, 4)), Number(date.slice(5, 7)), Number(date.slice(8, 10)));
+  const ymd = typeof date === "string" ? parseIso(date) : -1;
+  if (ymd < 0) throw new InvalidCalendarDateError(date);
+  return daysFromCivil(Math.floor(ymd / 10000), Math.floor(ymd / 100) % 100, ymd % 100);
 }
 
 // Calendars reuse a few thousand distinct dates: share one string per day instead of building
