@@ -3,7 +3,8 @@ import { addCalendarDays } from "./calendar-date";
 import type { CalendarEntry, SubjectCalendar, VisitState } from "./subject-calendar";
 
 // A site's due and upcoming visits as an RFC 5545 feed: one all-day event per visit on its target
-// date (DTSTART;VALUE=DATE, RFC 5545 §3.6.1), the window in the description. Subject codes only:
+// date (DTSTART;VALUE=DATE, RFC 5545 §3.6.1; clause numbers here from memory), the window in the
+// description. Subject codes only:
 // Cairn holds no patient identities.
 
 export const protocolGovernsNotice =

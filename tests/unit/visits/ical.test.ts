@@ -31,7 +31,7 @@ describe("site visit feed", () => {
     expect(byUid.size).toBe(expected.length); // UIDs unique
     for (const e of expected) {
       const ev = [...byUid.values()].find((x) => x.summary.startsWith(`${e.subjectCode} ${e.visitCode} `))!;
-      expect(ev.startDate.isDate).toBe(true); // VALUE=DATE (RFC 5545 §3.3.4)
+      expect(ev.startDate.isDate).toBe(true); // VALUE=DATE (RFC 5545 §3.3.4, clause from memory)
       expect(ev.startDate.toString()).toBe(e.targetDate);
       expect(ev.description).toContain(`window ${e.windowStart} to ${e.windowEnd}`);
       expect(ev.description).toContain(protocolGovernsNotice);
