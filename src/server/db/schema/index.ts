@@ -5,3 +5,4 @@ export * from "./studies";
 export * from "./audit";
 export * from "./outbox";
 export * from "./documents";
+export * from "./protocol";
