@@ -68,47 +68,117 @@ function ensureSpace(pdf: Doc, height: number) {
 
 function partTitle(pdf: Doc, title: string, subtitle?: string) {
   pdf.addPage();
-  pdf.font("bold").fontSize(18).fillColor(INK).text(title);
-  if (subtitle) pdf.font("regular").fontSize(10).fillColor(MUTED).text(subtitle);
+  writeRuns(pdf, [{ text: title, font: "bold", color: INK }], 18, 0);
+  if (subtitle) writeRuns(pdf, [{ text: subtitle, font: "regular", color: MUTED }], 10, 0);
   pdf.moveDown(1).fillColor(INK);
 }
 
-function fontFor(bold: boolean, italic: boolean): string {
+function fontFor(bold: boolean, italic: boolean): FontName {
   return bold ? (italic ? "boldItalic" : "bold") : italic ? "italic" : "regular";
+}
+
+interface Run {
+  text: string;
+  font: FontName;
+  color: string;
+  underline?: boolean;
+  strike?: boolean;
+  link?: string;
+}
+type FontName = keyof typeof FONT_FILES;
+
+// Characters Windows-1252 has beyond Latin-1: the standard Helvetica can draw them.
+const WIN_ANSI_EXTRA = "€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ";
+const ASCII_FALLBACK: Record<string, string> = { "≥": ">=", "≤": "<=", "≠": "!=", "≈": "~", "→": "->", "←": "<-", "−": "-", "\u2009": " ", "\u202f": " " };
+const STANDARD_FALLBACK: Record<FontName, string> = { regular: "Helvetica", italic: "Helvetica-Oblique", bold: "Helvetica-Bold", boldItalic: "Helvetica-BoldOblique" };
+
+/** Whether the embedded Atkinson font has a glyph (it lacks e.g. µ, ≥, ≤). */
+function hasGlyph(pdf: Doc, font: FontName, ch: string): boolean {
+  pdf.font(font);
+  const embedded = (pdf as unknown as { _font?: { font?: { hasGlyphForCodePoint?: (cp: number) => boolean } } })._font?.font;
+  return embedded?.hasGlyphForCodePoint ? embedded.hasGlyphForCodePoint(ch.codePointAt(0)!) : true;
+}
+
+/** Split a run where the font lacks glyphs: Helvetica for Windows-1252 characters, ASCII look-alikes otherwise. */
+function withFallbacks(pdf: Doc, run: Run): { run: Run; fontFace: string }[] {
+  const out: { run: Run; fontFace: string }[] = [];
+  const push = (text: string, face: string) => {
+    const last = out[out.length - 1];
+    if (last && last.fontFace === face) last.run = { ...last.run, text: last.run.text + text };
+    else out.push({ run: { ...run, text }, fontFace: face });
+  };
+  for (const ch of run.text) {
+    if (ch === "\n" || hasGlyph(pdf, run.font, ch)) push(ch, run.font);
+    else if (ch.codePointAt(0)! <= 0xff || WIN_ANSI_EXTRA.includes(ch)) push(ch, STANDARD_FALLBACK[run.font]);
+    else push(ASCII_FALLBACK[ch] ?? "?", run.font);
+  }
+  return out;
+}
+
+/**
+ * Write runs as one paragraph at the left margin + indent. Each "\n" starts a new line; a run's
+ * leading spaces move to the end of the run before (pdfkit drops them at a fragment's start).
+ */
+function writeRuns(pdf: Doc, runs: Run[], size: number, indent: number) {
+  drawRuns(pdf, runs, size, pdf.page.margins.left + indent, contentWidth(pdf) - indent);
+  pdf.x = pdf.page.margins.left;
+}
+
+/** Draw runs from (x, pdf.y) within width, starting a new line at each "\n". */
+function drawRuns(pdf: Doc, runs: Run[], size: number, x: number, width: number) {
+  const lines: Run[][] = [[]];
+  for (const run of runs)
+    run.text.split("\n").forEach((piece, i) => {
+      if (i > 0) lines.push([]);
+      if (piece) lines[lines.length - 1]!.push({ ...run, text: piece });
+    });
+  for (const line of lines) {
+    const pieces = line.flatMap((run) => withFallbacks(pdf, run));
+    for (let i = 1; i < pieces.length; i++) {
+      const lead = /^\s+/.exec(pieces[i]!.run.text)?.[0];
+      if (lead) {
+        pieces[i - 1]!.run.text += lead;
+        pieces[i]!.run.text = pieces[i]!.run.text.slice(lead.length);
+      }
+    }
+    const drawn = pieces.filter((piece) => piece.run.text.length > 0);
+    if (!drawn.length) {
+      pdf.font("regular").fontSize(size).text(" ", x, pdf.y, { width });
+      continue;
+    }
+    // Align fallback glyphs on the Atkinson baseline (pdfkit places text by each font's ascender).
+    pdf.font("regular").fontSize(size);
+    const ascender = ((pdf as unknown as { _font: { ascender: number } })._font.ascender / 1000) * size;
+    drawn.forEach(({ run, fontFace }, i) => {
+      pdf.font(fontFace).fontSize(size).fillColor(run.color);
+      const opts = {
+        width,
+        ...(fontFace in FONT_FILES ? {} : { baseline: -ascender }),
+        continued: i < drawn.length - 1,
+        underline: Boolean(run.underline),
+        strike: Boolean(run.strike),
+        ...(run.link ? { link: run.link } : {}),
+      };
+      if (i === 0) pdf.text(run.text, x, pdf.y, opts);
+      else pdf.text(run.text, opts);
+    });
+  }
+  pdf.fillColor(INK);
 }
 
 /** Write inline content of a paragraph or heading with its marks. */
 function writeInline(pdf: Doc, node: ProtocolNode, size: number, baseBold: boolean, indent: number) {
-  const runs: { text: string; bold: boolean; italic: boolean; link?: string }[] = [];
+  const runs: Run[] = [];
   for (const child of node.content ?? []) {
-    if (child.type === "hardBreak") runs.push({ text: "\n", bold: baseBold, italic: false });
+    if (child.type === "hardBreak") runs.push({ text: "\n", font: "regular", color: INK });
     else if (child.type === "text" && child.text) {
       const marks = child.marks ?? [];
       const link = marks.find((m) => m.type === "link")?.attrs?.href;
-      runs.push({
-        text: child.text,
-        bold: baseBold || marks.some((m) => m.type === "bold"),
-        italic: marks.some((m) => m.type === "italic"),
-        ...(typeof link === "string" ? { link } : {}),
-      });
+      const font = fontFor(baseBold || marks.some((m) => m.type === "bold"), marks.some((m) => m.type === "italic"));
+      runs.push({ text: child.text, font, color: typeof link === "string" ? INSERTED : INK, ...(typeof link === "string" ? { link, underline: true } : {}) });
     }
   }
-  const width = contentWidth(pdf) - indent;
-  const x = pdf.page.margins.left + indent;
-  if (!runs.length) {
-    pdf.font("regular").fontSize(size).text(" ", x, pdf.y, { width });
-    return;
-  }
-  runs.forEach((run, i) => {
-    pdf
-      .font(fontFor(run.bold, run.italic))
-      .fontSize(size)
-      .fillColor(run.link ? INSERTED : INK);
-    const opts = { width, continued: i < runs.length - 1, underline: Boolean(run.link), ...(run.link ? { link: run.link } : {}) };
-    if (i === 0) pdf.text(run.text, x, pdf.y, opts);
-    else pdf.text(run.text, opts);
-  });
-  pdf.fillColor(INK);
+  writeRuns(pdf, runs, size, indent);
 }
 
 function writeTable(pdf: Doc, rows: string[][], opts: { header: boolean; size?: number; widths?: number[] }) {
@@ -127,7 +197,8 @@ function writeTable(pdf: Doc, rows: string[][], opts: { header: boolean; size?: 
     let x = pdf.page.margins.left;
     widths.forEach((w, c) => {
       pdf.rect(x, y, w, h).lineWidth(0.5).strokeColor(RULE).stroke();
-      pdf.fillColor(INK).text(row[c] ?? "", x + pad, y + pad, { width: w - 2 * pad });
+      pdf.y = y + pad;
+      drawRuns(pdf, [{ text: row[c] ?? "", font: bold ? "bold" : "regular", color: INK }], size, x + pad, w - 2 * pad);
       x += w;
     });
     pdf.x = pdf.page.margins.left;
@@ -195,24 +266,15 @@ const visitWidths = (total: number) => [0.1, 0.22, 0.12, 0.08, 0.14, 0.34].map((
 
 /** Parts of a block with insertions underlined and deletions struck through. */
 function writeParts(pdf: Doc, parts: WordPart[], size: number, bold: boolean, prefix: string) {
-  const all: WordPart[] = prefix ? [{ kind: "equal", text: prefix }, ...parts] : parts;
-  const nonEmpty = all.filter((p) => p.text.length > 0);
-  if (!nonEmpty.length) {
-    pdf.font("regular").fontSize(size).text(" ");
-    return;
-  }
-  const x = pdf.page.margins.left;
-  const width = contentWidth(pdf);
-  nonEmpty.forEach((p, i) => {
-    pdf
-      .font(bold ? "bold" : "regular")
-      .fontSize(size)
-      .fillColor(p.kind === "inserted" ? INSERTED : p.kind === "deleted" ? DELETED : INK);
-    const opts = { width, continued: i < nonEmpty.length - 1, underline: p.kind === "inserted", strike: p.kind === "deleted" };
-    if (i === 0) pdf.text(p.text, x, pdf.y, opts);
-    else pdf.text(p.text, opts);
-  });
-  pdf.fillColor(INK);
+  const font: FontName = bold ? "bold" : "regular";
+  const runs: Run[] = (prefix ? [{ kind: "equal" as const, text: prefix }, ...parts] : parts).map((p) => ({
+    text: p.text,
+    font,
+    color: p.kind === "inserted" ? INSERTED : p.kind === "deleted" ? DELETED : INK,
+    underline: p.kind === "inserted",
+    strike: p.kind === "deleted",
+  }));
+  writeRuns(pdf, runs, size, 0);
 }
 
 function writeFooters(pdf: Doc, input: EthicsPackageInput) {
@@ -288,8 +350,11 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
       const size = heading ? (block.level === 1 ? 15 : block.level === 2 ? 13 : 11.5) : 10.5;
       ensureSpace(pdf, size * (heading ? 3 : 1.5));
       if (heading) pdf.moveDown(0.4);
-      const prefix = heading && block.section ? `${block.section}  ` : "";
-      writeParts(pdf, block.parts, size, heading, prefix);
+      const list = block.type === "bulletList" || block.type === "orderedList";
+      const prefix = heading && block.section ? `${block.section}  ` : list ? "•  " : "";
+      // Lists and tables arrive as plain text: items on new lines, cells separated by tabs.
+      const parts = list || block.type === "table" ? block.parts.map((x) => ({ ...x, text: x.text.replace(/\n/g, list ? "\n•  " : "\n").replace(/\t/g, "  |  ") })) : block.parts;
+      writeParts(pdf, parts, size, heading, prefix);
       if (block.formatOnly) pdf.font("italic").fontSize(8).fillColor(MUTED).text("(formatting changed)").fillColor(INK);
       pdf.moveDown(heading ? 0.3 : 0.4);
     }

@@ -44,7 +44,10 @@ export interface RedlineRow {
   formatOnly: boolean;
 }
 
-/** A block of the inline view: all parts in reading order (deletions before insertions). */
+/**
+ * A block of the inline view: all parts in reading order (deletions before insertions), except
+ * whitespace-only deletions next to an insertion (a line break replaced by a space reads as the space).
+ */
 export interface InlineBlock {
   kind: RowKind;
   section: string | null;
@@ -330,12 +333,16 @@ export function computeRedline(beforeDoc: unknown, afterDoc: unknown): Redline {
         push({ kind: "inserted", left: null, right: side(step.b, parts), formatOnly: false }, parts);
       } else {
         const parts = step.a.text === step.b.text ? wholeText(step.a.text, "equal") : diffBlockWords(step.a.text, step.b.text);
+        // The inline view shows the new layout: whitespace deleted where other whitespace is inserted is left out.
+        const inlineParts = parts.filter(
+          (x, i) => !(x.kind === "deleted" && !x.text.trim() && (parts[i + 1]?.kind === "inserted" || parts[i - 1]?.kind === "inserted")),
+        );
         push({
           kind: "changed",
           left: side(step.a, parts.filter((p) => p.kind !== "inserted")),
           right: side(step.b, parts.filter((p) => p.kind !== "deleted")),
           formatOnly: step.a.text === step.b.text,
-        }, parts);
+        }, inlineParts);
       }
     }
     removed = [];

@@ -64,6 +64,14 @@ describe("buildEthicsPackagePdf", () => {
     expect(standardFontText(pdf).split(i.contentHash).length - 1).toBe(pages);
   });
 
+  it("draws characters the Atkinson font lacks (µ, ≥) without failing", async () => {
+    const d = doc(h(1, "Stimulation ≥ 2 µA"), p("Age ≥ 18 years; current ≤ 50 µA → stop."));
+    const pdf = await buildEthicsPackagePdf(input({ doc: d, parent: null, summaryOfChanges: [] }));
+    const body = pdf.toString("latin1");
+    expect(body).toContain("/BaseFont /Helvetica"); // µ from the standard font
+    expect(standardFontText(pdf)).toContain("µ");
+  });
+
   it("compresses by default", async () => {
     const pdf = await buildEthicsPackagePdf(input({ compress: true }));
     expect(pdf.toString("latin1")).toContain("/FlateDecode");

@@ -89,6 +89,15 @@ describe("computeRedline", () => {
     expect(kinds).toEqual(["deleted", "inserted", "changed"]);
   });
 
+  it("leaves out of the inline view a line break replaced by a space, keeping both sides exact", () => {
+    const cells = (a: string, b: string) => ({ type: "table", content: [{ type: "tableRow", content: [a, b].map((x) => ({ type: "tableCell", content: [p(x)] })) }] });
+    const r = computeRedline(doc(p("Visit day"), cells("Day", "90")), doc(p("Visit day"), cells("Day µ", "91")));
+    const row = r.rows[1]!;
+    expect(join(row.left!.parts)).toBe("Day\t90");
+    expect(join(row.right!.parts)).toBe("Day µ\t91");
+    expect(r.inline[1]!.parts.filter((x) => x.kind === "deleted").map((x) => x.text)).toEqual(["90"]);
+  });
+
   it("compares lists and tables as blocks, word by word", () => {
     const list = (a: string, b: string) => ({ type: "bulletList", content: [a, b].map((x) => ({ type: "listItem", content: [p(x)] })) });
     const r = computeRedline(doc(list("Visual acuity test", "Phosphene map")), doc(list("Visual acuity test", "Phosphene map and reading test")));
