@@ -70,8 +70,8 @@ function generate(seed: number): ProtocolDoc {
   return { type: "doc", content };
 }
 
-/** Change about `share` of the words: replace, insert or delete, spread over the text nodes. */
-function amend(doc: ProtocolDoc, share: number, seed: number): { doc: ProtocolDoc; changed: number } {
+/** Change about `share` of the words (replace, insert or delete, spread over the text nodes). */
+function amend(doc: ProtocolDoc, share: number, seed: number): { doc: ProtocolDoc; changed: number; blocksMoved: number } {
   const rand = mulberry32(seed);
   let changed = 0;
   const visit = (node: ProtocolNode): ProtocolNode => {
@@ -93,7 +93,22 @@ function amend(doc: ProtocolDoc, share: number, seed: number): { doc: ProtocolDo
     }
     return node.content ? { ...node, content: node.content.map(visit) } : node;
   };
-  return { doc: visit(doc) as ProtocolDoc, changed };
+  // A few whole paragraphs also go or come, so the block alignment has hunks to pair.
+  const content: ProtocolNode[] = [];
+  let blocksMoved = 0;
+  for (const block of (visit(doc) as ProtocolDoc).content ?? []) {
+    const r = rand();
+    if (block.type === "paragraph" && r < 0.01) {
+      blocksMoved++;
+      continue;
+    }
+    content.push(block);
+    if (r > 0.99) {
+      content.push(para(words(rand, 30)));
+      blocksMoved++;
+    }
+  }
+  return { doc: { type: "doc", content }, changed, blocksMoved };
 }
 
 function median(xs: number[]): number {
@@ -115,7 +130,7 @@ function time(fn: () => unknown, runs: number): number {
 
 const runs = Number(process.argv[2] ?? 7);
 const before = generate(20261201);
-const { doc: after, changed } = amend(before, 0.05, 8785);
+const { doc: after, changed, blocksMoved } = amend(before, 0.05, 8785);
 const plain = (d: ProtocolDoc) => (d.content ?? []).map(nodePlainText).join("\n\n");
 const beforeText = plain(before);
 const afterText = plain(after);
@@ -125,7 +140,7 @@ const redline = computeRedline(before, after);
 const oursMs = time(() => computeRedline(before, after), runs);
 const jsdiffMs = time(() => diffWords(beforeText, afterText), Math.max(3, Math.min(runs, 5)));
 
-console.log(`documents: ${wordCount} words, ${before.content!.length} blocks; ${changed} words changed (${((100 * changed) / wordCount).toFixed(1)}%)`);
+console.log(`documents: ${wordCount} words, ${before.content!.length} blocks; ${changed} words changed (${((100 * changed) / wordCount).toFixed(1)}%), ${blocksMoved} paragraphs removed or added`);
 console.log(
   `redline: ${redline.stats.changed} changed, ${redline.stats.inserted} inserted, ${redline.stats.deleted} deleted blocks; ` +
     `${redline.stats.wordsInserted} words inserted, ${redline.stats.wordsDeleted} deleted`,

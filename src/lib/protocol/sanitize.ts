@@ -73,7 +73,8 @@ function sanitizeNode(raw: unknown, allowed: Kind, depth: number): ProtocolNode 
   if (allowed === "listItem") {
     if (type !== "listItem") return null;
     const content = sanitizeChildren(node.content, "block", depth);
-    return { type, content: content.length ? content : [{ type: "paragraph" }] };
+    // The editor's list item starts with a paragraph ("paragraph block*").
+    return { type, content: content[0]?.type === "paragraph" ? content : [{ type: "paragraph" }, ...content] };
   }
   if (allowed === "row") {
     if (type !== "tableRow") return null;

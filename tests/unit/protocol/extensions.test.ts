@@ -25,7 +25,7 @@ describe("protocolExtensions", () => {
       type: "doc",
       content: [
         { type: "heading", attrs: { level: 6 }, content: [{ type: "text", text: "Title" }] },
-        { type: "bulletList", content: [{ type: "listItem", content: [] }, { type: "image" }] },
+        { type: "bulletList", content: [{ type: "listItem", content: [] }, { type: "image" }, { type: "listItem", content: [{ type: "heading", attrs: { level: 2 } }] }] },
         { type: "table", content: [{ type: "tableRow", content: [{ type: "tableCell", attrs: { colspan: 2, colwidth: [1] } }] }] },
         { type: "paragraph", content: [{ type: "text", text: "x", marks: [{ type: "link", attrs: { href: "javascript:alert(1)" } }, { type: "bold" }] }] },
       ],
