@@ -68,11 +68,13 @@ export function sectionLabel(section: Pick<Section, "number" | "title"> | null):
 export const sectionNumberingClass = "cairn-section-numbers";
 
 /**
- * CSS for section numbers. In the editor put the class on the ProseMirror element
+ * CSS for section numbers. The wrapper resets only the top counter: a wrapper-level reset of the
+ * deeper counters would outlive the headings' own resets (seen in Chromium: "2.2.3" after "1.2").
+ * Checked in headless Chromium against listSections on a document with orphan and skipped levels. In the editor put the class on the ProseMirror element
  * (editorProps.attributes.class), in the rendered view on the wrapper of renderProtocolHtml's output.
  */
 export const sectionNumberingCss = `
-.${sectionNumberingClass} { counter-reset: cairn-s1 cairn-s2 cairn-s3; }
+.${sectionNumberingClass} { counter-reset: cairn-s1; }
 .${sectionNumberingClass} > h1 { counter-increment: cairn-s1; counter-reset: cairn-s2 cairn-s3; }
 .${sectionNumberingClass} > h2 { counter-increment: cairn-s2; counter-reset: cairn-s3; }
 .${sectionNumberingClass} > h3 { counter-increment: cairn-s3; }

@@ -28,8 +28,10 @@ describe("sections", () => {
     ]);
   });
 
-  it("numbers a sub-heading before any top heading as CSS counters do (0.1)", () => {
-    expect(listSections(doc(h(2, "Orphan"), h(1, "First"))).map((s) => s.number)).toEqual(["0.1", "1"]);
+  // These edge numbers were compared with the CSS counters rendered by headless Chromium.
+  it("numbers orphan and skipped levels as CSS counters do (0.1, 2.0.1)", () => {
+    const d = doc(h(3, "Orphan 3"), h(2, "Orphan 2"), h(1, "First"), h(2, "A"), h(1, "Second"), h(3, "Skipped"), h(2, "B"));
+    expect(listSections(d).map((s) => s.number)).toEqual(["0.0.1", "0.1", "1", "1.1", "2", "2.0.1", "2.1"]);
   });
 
   it("tells the section of every block, null before the first heading", () => {
@@ -48,6 +50,7 @@ describe("sections", () => {
   });
 
   it("ships CSS counters for the three levels on direct children", () => {
+    expect(sectionNumberingCss).toContain(".cairn-section-numbers { counter-reset: cairn-s1; }");
     expect(sectionNumberingCss).toContain("> h1 { counter-increment: cairn-s1; counter-reset: cairn-s2 cairn-s3; }");
     expect(sectionNumberingCss).toContain("> h2 { counter-increment: cairn-s2; counter-reset: cairn-s3; }");
     expect(sectionNumberingCss).toContain('> h3::before { content: counter(cairn-s1) "." counter(cairn-s2) "." counter(cairn-s3)');
