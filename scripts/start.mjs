@@ -40,8 +40,9 @@ try {
   const { url } = startCluster({ ...pg, port: ports.pg, database: "cairn" });
   log(`PostgreSQL on 127.0.0.1:${ports.pg} (data in ${path.relative(projectDir, pg.dir) || pg.dir})`);
   const env = appEnv({ databaseUrl: url, appPort, ports, secret: persistentSecret("nextauth-secret") });
-  migrateAndSeed(env);
+  // Fakes first: the seed stores demo documents in the S3 fake.
   children.push(await startFakes({ ...env, CAIRN_FAKES_DIR: path.join(projectDir, ".cairn", "fakes") }, ports));
+  migrateAndSeed(env);
   buildApp(env);
   children.push(startWorker(env));
   children.push(await startApp(env, appPort));

@@ -57,8 +57,8 @@ try {
     CAIRN_TEST_POSTGRES_BIN: pgBin,
     ...(chromium ? { CHROMIUM_PATH: chromium } : {}),
   };
-  migrateAndSeed(env);
   children.push(await startFakes(env, ports, { silent: true }));
+  migrateAndSeed(env);
   if (wantsBrowser) {
     buildApp({ ...env, NODE_ENV: "production" });
     children.push(await startApp(env, appPort, { silent: true }));
