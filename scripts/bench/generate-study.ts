@@ -37,7 +37,7 @@ const CURRENCIES: [string, string, bigint][] = [
 const VISITS: [string, number][] = [
   ["SCR", 0], ["IMP", 14], ["D01", 15], ["W01", 21], ["W02", 28], ["M01", 44], ["M02", 74], ["M03", 104],
   ["M06", 194], ["M09", 284], ["M12", 379], ["M15", 469], ["M18", 559], ["M24", 739], ["M30", 919],
-  ["M36", 1099], ["M42", 1279], ["M48", 1459], ["M54", 1639], ["M60", 1819],
+  ["M36", 1099], ["M42", 1279], ["M48", 1459], ["M54", 1639], ["M60", 1819], ["M66", 1999], ["M72", 2179],
 ];
 
 export function generateStudy(options: GenerateStudyOptions = {}): PaymentScheduleSnapshot {
@@ -62,7 +62,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
     const [currency, timeZone, scale] = CURRENCIES[i % CURRENCIES.length] as [string, string, bigint];
     const unit = currency === "JPY" ? 150n : currency === "KWD" ? 300n : 100n * scale; // minor units per "euro"
     const id = `site-${String(i + 1).padStart(3, "0")}`;
-    const activatedOn = addDays("2023-01-01", int(0, 540));
+    const activatedOn = addDays("2019-06-01", int(0, 540));
     const closedOutOn = i % 20 === 19 ? addDays(asOf, -int(10, 120)) : null;
     snapshot.sites.push({ id, code: `S${String(i + 1).padStart(3, "0")}`, currency, timeZone, activatedOn, enrolmentClosedOn: closedOutOn, closedOutOn } as never);
     const fees: Record<string, bigint> = {};
@@ -95,12 +95,12 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
   // Enrolled subjects carry the visits; the rest are screen failures.
   const enrolledShare = 0.8;
   const enrolledCount = Math.round(subjectCount * enrolledShare);
-  const visitsPerSubject = Math.max(1, Math.round(visitTarget / enrolledCount));
+  // Each enrolled subject has its calendar visits up to asOf, until the study holds visitTarget visits.
   let visitId = 0;
   for (let j = 0; j < subjectCount; j++) {
     const site = snapshot.sites[j % siteCount] as unknown as { id: string; activatedOn: string; closedOutOn: string | null };
     const id = `subj-${String(j + 1).padStart(5, "0")}`;
-    const screenedOn = addDays(site.activatedOn, int(5, 900));
+    const screenedOn = addDays(site.activatedOn, int(5, 600));
     const enrolled = j < enrolledCount;
     const subject: Subject = { id, siteId: site.id, code: `K-${String(j + 1).padStart(5, "0")}`, screenedOn };
     if (!enrolled) subject.screenFailedOn = addDays(screenedOn, int(1, 20));
@@ -114,7 +114,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
     for (let k = 0; k < VISITS.length; k++) {
       const [code, offset] = VISITS[k] as [string, number];
       const target = addDays(subject.enrolledOn as string, offset);
-      if (k >= visitsPerSubject || target > asOf) {
+      if (visitId >= visitTarget || target > asOf) {
         if (target > asOf) snapshot.projection.scheduledVisits.push({ subjectId: id, visitCode: code, targetDate: target } as never);
         continue;
       }

@@ -25,11 +25,14 @@ export function versionAt(versions: readonly BudgetVersion[], date: string): Bud
 }
 
 export class CycleBook {
-  private readonly periods = new Map<string, CyclePeriod>();
+  private readonly periods = new Map<number, CyclePeriod>();
   private readonly dues = new Map<CyclePeriod, Map<number, string>>();
 
   period(date: string, cycle: PaymentCycle): CyclePeriod {
-    const k = cycle === "monthly" ? date.slice(0, 7) : `${date.slice(0, 7)}q`;
+    // Numeric key (year·12 + month; −(year·4 + quarter) − 1 for quarters): nothing to hash per line.
+    const year = Number(date.slice(0, 4));
+    const month = (date.charCodeAt(5) - 48) * 10 + (date.charCodeAt(6) - 48);
+    const k = cycle === "monthly" ? year * 12 + month : -(year * 4 + Math.floor((month - 1) / 3)) - 1;
     let p = this.periods.get(k);
     if (!p) {
       p = cyclePeriodOf(date, cycle);
@@ -104,6 +107,7 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
   const drafts: LineDraft[] = [];
+  const lines: EarnedLine[] = [];
   const subjectsById = new Map<string, Subject>();
   for (const s of input.subjects) subjectsById.set(s.id, s);
 
@@ -245,16 +249,9 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
       continue;
     }
     if (triggerDate < visit.serviceDate) triggerDate = visit.serviceDate;
-    drafts.push({
-      key,
-      kind: "visit",
-      source: { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode },
-      serviceDate: visit.serviceDate,
-      triggerDate,
-      trigger: v.trigger,
-      version: v,
-      amounts: prices.price(v, fee, withholds(triggerDate)),
-    });
+    // Visits are the bulk of the lines: built directly, without an intermediate draft.
+    const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
+    lines.push(newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, prices.price(v, fee, withholds(triggerDate)), cycles, false, null, null, null));
   }
 
   // Pass-through invoices.
@@ -282,6 +279,7 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   if (closedOutOn) {
     let withheld = 0n;
     for (const d of drafts) withheld += d.amounts.holdbackMinor;
+    for (const l of lines) withheld += l.holdbackMinor;
     const v = versionAt(versions, closedOutOn);
     if (v && withheld !== 0n) {
       drafts.push({
@@ -297,41 +295,88 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
     }
   }
 
-  drafts.sort((a, b) => (a.triggerDate < b.triggerDate ? -1 : a.triggerDate > b.triggerDate ? 1 : a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
-  const lines: EarnedLine[] = new Array(drafts.length);
-  for (let i = 0; i < drafts.length; i++) {
-    const d = drafts[i] as LineDraft;
-    const cycle = cycles.period(d.triggerDate, d.version.cycle);
-    // Every line has the same fields in the same order (one object shape for the engine to optimise).
-    lines[i] = {
-      key: d.key,
-      siteId: site.id,
-      currency: site.currency,
-      kind: d.kind,
-      source: d.source,
-      serviceDate: d.serviceDate,
-      triggerDate: d.triggerDate,
-      trigger: d.trigger,
-      budgetVersionId: d.version.id,
-      budgetVersionNumber: d.version.versionNumber,
-      grossMinor: d.amounts.grossMinor,
-      overheadMinor: d.amounts.overheadMinor,
-      holdbackMinor: d.amounts.holdbackMinor,
-      netMinor: d.amounts.netMinor,
-      overCap: d.overCap ?? false,
-      cappedFeeMinor: d.cappedFeeMinor ?? null,
-      capLiftedOn: d.capLiftedOn ?? null,
-      capLiftedBySubjectId: d.capLiftedBySubjectId ?? null,
-      cycle,
-      dueDate: cycles.due(cycle, d.version.netDays),
-      paidMinor: 0n,
-      outstandingMinor: d.amounts.netMinor,
-      unappliedMinor: 0n,
-      lastPaidOn: null,
-      partiallyPaid: false,
-      inPaymentRun: false,
-      state: "outstanding",
-    };
+  for (const d of drafts) {
+    lines.push(newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null));
   }
-  return lines;
+  return sortLines(lines);
+}
+
+/** A line with every field in the same order (one object shape), unsettled. */
+function newLine(
+  site: Site,
+  key: string,
+  kind: LineKind,
+  source: LineSource,
+  serviceDate: string,
+  triggerDate: string,
+  trigger: PaymentTrigger | "event_date",
+  version: BudgetVersion,
+  amounts: Amounts,
+  cycles: CycleBook,
+  overCap: boolean,
+  cappedFeeMinor: bigint | null,
+  capLiftedOn: string | null,
+  capLiftedBySubjectId: string | null,
+): EarnedLine {
+  const cycle = cycles.period(triggerDate, version.cycle);
+  return {
+    key,
+    siteId: site.id,
+    currency: site.currency,
+    kind,
+    source,
+    serviceDate,
+    triggerDate,
+    trigger,
+    budgetVersionId: version.id,
+    budgetVersionNumber: version.versionNumber,
+    grossMinor: amounts.grossMinor,
+    overheadMinor: amounts.overheadMinor,
+    holdbackMinor: amounts.holdbackMinor,
+    netMinor: amounts.netMinor,
+    overCap,
+    cappedFeeMinor,
+    capLiftedOn,
+    capLiftedBySubjectId,
+    cycle,
+    dueDate: cycles.due(cycle, version.netDays),
+    paidMinor: 0n,
+    outstandingMinor: amounts.netMinor,
+    unappliedMinor: 0n,
+    lastPaidOn: null,
+    partiallyPaid: false,
+    inPaymentRun: false,
+    state: "outstanding",
+  };
+}
+
+/** yyyymmdd as an integer, read from the ISO date's characters. */
+function dateOrdinal(iso: string): number {
+  let n = 0;
+  for (let i = 0; i < 10; i++) {
+    const c = iso.charCodeAt(i);
+    if (c !== 45) n = n * 10 + (c - 48);
+  }
+  return n;
+}
+
+/** Lines by trigger date, then key (numeric dates compare faster than strings). */
+function sortLines(lines: EarnedLine[]): EarnedLine[] {
+  const n = lines.length;
+  const day = new Float64Array(n);
+  const order = new Uint32Array(n);
+  for (let i = 0; i < n; i++) {
+    day[i] = dateOrdinal((lines[i] as EarnedLine).triggerDate);
+    order[i] = i;
+  }
+  order.sort((a, b) => {
+    const d = (day[a] as number) - (day[b] as number);
+    if (d !== 0) return d;
+    const ka = (lines[a] as EarnedLine).key;
+    const kb = (lines[b] as EarnedLine).key;
+    return ka < kb ? -1 : ka > kb ? 1 : 0;
+  });
+  const sorted: EarnedLine[] = new Array(n);
+  for (let i = 0; i < n; i++) sorted[i] = lines[order[i] as number] as EarnedLine;
+  return sorted;
 }

@@ -48,7 +48,7 @@ const studyArb = fc.record({
   payments: fc.array(fc.record({ pick: fc.nat(), amount: fc.bigInt({ min: 0n, max: 3_000_000n }), at: fc.integer({ min: 0, max: 900 }) }), { maxLength: 12 }),
 });
 
-type Study = fc.infer<typeof studyArb>;
+type Study = typeof studyArb extends fc.Arbitrary<infer T> ? T : never;
 
 function buildSnapshot(study: Study): PaymentScheduleSnapshot {
   const sites: Site[] = [];
