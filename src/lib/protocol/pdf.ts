@@ -181,6 +181,21 @@ function writeInline(pdf: Doc, node: ProtocolNode, size: number, baseBold: boole
   writeRuns(pdf, runs, size, indent);
 }
 
+/** The longest word-boundary prefix of text that fits maxHeight at width (at least one word). */
+function splitToFit(pdf: Doc, text: string, width: number, maxHeight: number): [string, string] {
+  if (pdf.heightOfString(text, { width }) <= maxHeight) return [text, ""];
+  const words = text.split(/(?<=\s)/);
+  let lo = 1;
+  let hi = words.length;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (pdf.heightOfString(words.slice(0, mid).join(""), { width }) <= maxHeight) lo = mid;
+    else hi = mid - 1;
+  }
+  return [words.slice(0, lo).join(""), words.slice(lo).join("")];
+}
+
+/** A grid table; a row taller than the room left continues on the next page. */
 function writeTable(pdf: Doc, rows: string[][], opts: { header: boolean; size?: number; widths?: number[] }) {
   const size = opts.size ?? 9;
   const cols = Math.max(1, ...rows.map((r) => r.length));
@@ -188,21 +203,37 @@ function writeTable(pdf: Doc, rows: string[][], opts: { header: boolean; size?: 
   const widths = opts.widths ?? new Array(cols).fill(total / cols);
   const pad = 4;
   rows.forEach((row, r) => {
-    const bold = opts.header && r === 0;
-    pdf.font(bold ? "bold" : "regular").fontSize(size);
-    const heights = widths.map((w, c) => pdf.heightOfString(row[c] ?? "", { width: w - 2 * pad }));
-    const h = Math.max(...heights) + 2 * pad;
-    ensureSpace(pdf, Math.min(h, 400));
-    const y = pdf.y;
-    let x = pdf.page.margins.left;
-    widths.forEach((w, c) => {
-      pdf.rect(x, y, w, h).lineWidth(0.5).strokeColor(RULE).stroke();
-      pdf.y = y + pad;
-      drawRuns(pdf, [{ text: row[c] ?? "", font: bold ? "bold" : "regular", color: INK }], size, x + pad, w - 2 * pad);
-      x += w;
-    });
-    pdf.x = pdf.page.margins.left;
-    pdf.y = y + h;
+    const font: FontName = opts.header && r === 0 ? "bold" : "regular";
+    let cells = widths.map((_, c) => row[c] ?? "");
+    for (;;) {
+      pdf.font(font).fontSize(size);
+      let h = Math.max(...cells.map((text, c) => pdf.heightOfString(text, { width: widths[c]! - 2 * pad }))) + 2 * pad;
+      const room = pdf.page.height - pdf.page.margins.bottom - pdf.y;
+      if (h > room && room < Math.min(h, 72)) {
+        pdf.addPage();
+        continue;
+      }
+      let rest: string[] = [];
+      if (h > room) {
+        const split = cells.map((text, c) => splitToFit(pdf, text, widths[c]! - 2 * pad, room - 2 * pad));
+        cells = split.map(([head]) => head);
+        rest = split.map(([, tail]) => tail);
+        h = room;
+      }
+      const y = pdf.y;
+      let x = pdf.page.margins.left;
+      widths.forEach((w, c) => {
+        pdf.rect(x, y, w, h).lineWidth(0.5).strokeColor(RULE).stroke();
+        pdf.y = y + pad;
+        drawRuns(pdf, [{ text: cells[c]!, font, color: INK }], size, x + pad, w - 2 * pad);
+        x += w;
+      });
+      pdf.x = pdf.page.margins.left;
+      pdf.y = y + h;
+      if (!rest.some(Boolean)) break;
+      pdf.addPage();
+      cells = rest;
+    }
   });
   pdf.moveDown(0.5);
 }

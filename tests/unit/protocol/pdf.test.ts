@@ -64,6 +64,15 @@ describe("buildEthicsPackagePdf", () => {
     expect(standardFontText(pdf).split(i.contentHash).length - 1).toBe(pages);
   });
 
+  it("continues a summary row taller than a page on the next pages", async () => {
+    const long = "Subjects attend the clinic at each scheduled visit and complete the reading test. ".repeat(120);
+    const rows = [{ section: "2 Objectives", before: long, after: `${long} Then a final visit.`, rationale: "Longer follow-up." }];
+    const short = pageCount(await buildEthicsPackagePdf(input({ parent: null, summaryOfChanges: [{ ...rows[0]!, before: "a", after: "b" }] })));
+    const pdf = await buildEthicsPackagePdf(input({ parent: null, summaryOfChanges: rows }));
+    expect(pageCount(pdf)).toBeGreaterThan(short + 2);
+    expect(standardFontText(pdf).split(input().contentHash).length - 1).toBe(pageCount(pdf));
+  });
+
   it("draws characters the Atkinson font lacks (µ, ≥) without failing", async () => {
     const d = doc(h(1, "Stimulation ≥ 2 µA"), p("Age ≥ 18 years; current ≤ 50 µA → stop."));
     const pdf = await buildEthicsPackagePdf(input({ doc: d, parent: null, summaryOfChanges: [] }));
