@@ -6,3 +6,4 @@ export * from "./audit";
 export * from "./outbox";
 export * from "./documents";
 export * from "./protocol";
+export * from "./budgets";
