@@ -4,9 +4,10 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { Pool } from "pg";
 import * as schema from "../src/server/db/schema";
 import { seedFoundation } from "./seed/seed-foundation";
+import { seedProtocol } from "./seed/seed-protocol";
 import type { SeedContext } from "./seed/context";
 
-const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation];
+const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol];
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error("DATABASE_URL is not set");
