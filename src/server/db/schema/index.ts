@@ -7,3 +7,4 @@ export * from "./outbox";
 export * from "./documents";
 export * from "./protocol";
 export * from "./budgets";
+export * from "./acknowledgements";
