@@ -1,4 +1,5 @@
-import { bigint, index, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigint, date, index, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from "drizzle-orm/pg-core";
+import { binderDocumentTypes } from "./binder";
 import { users } from "./people";
 import { sites, studies } from "./studies";
 
@@ -24,8 +25,25 @@ export const documents = pgTable(
     uploaderId: uuid().notNull().references(() => users.id),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     verifiedAt: timestamp({ withTimezone: true }),
+    // Binder documents (essential documents of a site): type, whose, dates, versions and review.
+    documentTypeId: uuid().references(() => binderDocumentTypes.id),
+    /** For per-person types: the person the document belongs to. */
+    personId: uuid().references(() => users.id),
+    /** The earlier version this upload replaced (set when it is stored); the old one stays readable. */
+    supersedesId: uuid().references((): AnyPgColumn => documents.id),
+    issuedOn: date({ mode: "string" }),
+    /** Last day the document is valid (site calendar date). */
+    expiresOn: date({ mode: "string" }),
+    reviewState: text({ enum: ["awaiting_review", "accepted", "rejected"] }),
+    reviewReason: text(),
+    reviewerId: uuid().references(() => users.id),
+    reviewedAt: timestamp({ withTimezone: true }),
   },
-  (t) => [uniqueIndex("documents_storage_key").on(t.storageKey), index("documents_study_site_idx").on(t.studyId, t.siteId)],
+  (t) => [
+    uniqueIndex("documents_storage_key").on(t.storageKey),
+    index("documents_study_site_idx").on(t.studyId, t.siteId),
+    index("documents_site_type_idx").on(t.siteId, t.documentTypeId),
+  ],
 );
 
 export type DocumentRow = typeof documents.$inferSelect;
