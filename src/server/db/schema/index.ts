@@ -8,3 +8,4 @@ export * from "./documents";
 export * from "./protocol";
 export * from "./budgets";
 export * from "./acknowledgements";
+export * from "./binder";
