@@ -1,0 +1,3 @@
+export * from "./readiness";
+export * from "./dates";
+export * from "./matrix";
