@@ -15,7 +15,7 @@ import type {
   Totals,
   UnmatchedPayment,
 } from "./result";
-import type { PaymentScheduleSnapshot } from "./snapshot";
+import type { PaymentScheduleSnapshot, Subject } from "./snapshot";
 
 const VISIT_PREFIX = "visit:";
 
@@ -70,13 +70,13 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
   for (const site of sites) {
     if (!isSupportedCurrency(site.currency)) throw new Error(`Site ${site.code}: currency ${site.currency} is not supported`);
     if (siteInputs.has(site.id)) throw new Error(`Site ${site.id} appears twice in the snapshot`);
-    siteInputs.set(site.id, { site, asOf: localDate(snapshot.asOf, site.timeZone), versions: [], subjects: [], visits: [], invoices: [] });
+    siteInputs.set(site.id, { site, asOf: localDate(snapshot.asOf, site.timeZone), versions: [], subjects: [], visits: [], visitSubjects: [], invoices: [] });
   }
   for (const v of snapshot.budgetVersions) siteInputs.get(v.siteId)?.versions.push(v);
   for (const input of siteInputs.values()) {
     input.versions.sort((a, b) => (a.effectiveFrom < b.effectiveFrom ? -1 : a.effectiveFrom > b.effectiveFrom ? 1 : a.versionNumber - b.versionNumber));
   }
-  const subjectSite = new Map<string, SiteInput>();
+  const subjectById = new Map<string, { subject: Subject; input: SiteInput }>();
   for (const s of snapshot.subjects) {
     const input = siteInputs.get(s.siteId);
     if (!input) {
@@ -84,15 +84,16 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
       continue;
     }
     input.subjects.push(s);
-    subjectSite.set(s.id, input);
+    subjectById.set(s.id, { subject: s, input });
   }
   for (const v of snapshot.visits) {
-    const input = subjectSite.get(v.subjectId);
-    if (!input) {
+    const found = subjectById.get(v.subjectId);
+    if (!found) {
       pending.push({ key: `visit:${v.id}`, siteId: "", serviceDate: v.serviceDate, reason: "unknown_subject", detail: `Visit ${v.id} belongs to no subject in the snapshot` });
       continue;
     }
-    input.visits.push(v);
+    found.input.visits.push(v);
+    found.input.visitSubjects.push(found.subject);
   }
   for (const inv of snapshot.passThroughInvoices ?? []) siteInputs.get(inv.siteId)?.invoices.push(inv);
 

@@ -12,6 +12,8 @@ export interface SiteInput {
   versions: BudgetVersion[];
   subjects: Subject[];
   visits: RecordedVisit[];
+  /** The subject of each visit, same order as visits. */
+  visitSubjects: Subject[];
   invoices: PassThroughInvoice[];
 }
 
@@ -108,8 +110,6 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
   const drafts: LineDraft[] = [];
   const lines: EarnedLine[] = [];
-  const subjectsById = new Map<string, Subject>();
-  for (const s of input.subjects) subjectsById.set(s.id, s);
 
   // Start-up fee and milestones.
   const activatedOn = site.activatedOn && site.activatedOn <= asOf ? site.activatedOn : null;
@@ -221,10 +221,11 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   }
 
   // Visits.
-  for (const visit of input.visits) {
+  for (let vi = 0; vi < input.visits.length; vi++) {
+    const visit = input.visits[vi] as RecordedVisit;
     if (visit.status !== "done") continue;
     const key = `visit:${visit.id}`;
-    const subject = subjectsById.get(visit.subjectId) as Subject;
+    const subject = input.visitSubjects[vi] as Subject;
     if (visit.serviceDate > asOf) {
       pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "after_as_of", detail: `Service date ${visit.serviceDate} is after ${asOf}` });
       continue;

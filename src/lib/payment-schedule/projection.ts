@@ -72,6 +72,7 @@ function figures(bucket: Bucket, m: Moments): ProjectionMonthFigures {
     expectedEnrolments: m.expectedEnrolments,
     forecastGrossMinor: toMinor(m.grossMean),
     forecastNetMinor: toMinor(m.netMean),
+    forecastNetSd: Math.sqrt(m.netVariance),
     expectedNetMinor: m.scheduled.netMinor + toMinor(m.netMean),
     lowNetMinor: m.scheduled.netMinor + toMinor(band.low),
     highNetMinor: m.scheduled.netMinor + toMinor(band.high),

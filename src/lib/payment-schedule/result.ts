@@ -142,6 +142,8 @@ export interface ProjectionMonthFigures {
   expectedEnrolments: number;
   forecastGrossMinor: bigint;
   forecastNetMinor: bigint;
+  /** Standard deviation of the forecast net, in minor units (not rounded: a model figure). */
+  forecastNetSd: number;
   /** scheduled net + forecast net, with the 80% band of the forecast part. */
   expectedNetMinor: bigint;
   lowNetMinor: bigint;
