@@ -2,7 +2,7 @@
 // Each site enrols as a Poisson process with rate λᵢ ~ Gamma(α, β), β a rate (per month).
 // A site's count kᵢ over τᵢ months is then negative binomial; α, β are fitted by maximum
 // likelihood, and a site's updated rate is Gamma(α + kᵢ, β + τᵢ).
-import { gammaQuantile } from "./special-functions";
+import { gammaQuantile, logGamma } from "./special-functions";
 
 export interface SiteHistory {
   /** Subjects enrolled so far. */
@@ -212,4 +212,26 @@ export function band80(mean: number, variance: number): { low: number; high: num
   const shape = (mean * mean) / variance;
   const rate = mean / variance;
   return { low: gammaQuantile(BAND_LOW_P, shape, rate), high: gammaQuantile(BAND_HIGH_P, shape, rate) };
+}
+
+/**
+ * E[λ · P(Poisson(λt) = k)] over the rate's distribution. For a Poisson process with rate λ,
+ * Cov(N(A), 1{N(t) ≥ k+1} | λ) = |A| · λ · P(Poisson(λt) = k) when A ⊂ (0, t]; this is its mean
+ * over λ ~ Gamma(a, b): t^k/k! · bᵃ Γ(a+k+1) / (Γ(a) (b+t)^(a+k+1)).
+ */
+export function meanRateTimesPoissonPmf(p: RatePosterior, months: number, k: number): number {
+  if (months <= 0 || k < 0) return 0;
+  if (p.kind === "fixed") {
+    const mu = p.rate * months;
+    if (mu === 0) return 0;
+    return p.rate * Math.exp(k * Math.log(mu) - mu - logGamma(k + 1));
+  }
+  const { shape: a, rate: b } = p;
+  return Math.exp(k * Math.log(months) - logGamma(k + 1) + a * Math.log(b) + logGamma(a + k + 1) - logGamma(a) - (a + k + 1) * Math.log(b + months));
+}
+
+/** E[λ · 1{N(t) ≥ r}] = E[λ] · P(N(t) ≥ r) under the size-biased rate Gamma(a+1, b). */
+export function meanRateTimesProbabilityAtLeast(p: RatePosterior, months: number, r: number): number {
+  if (p.kind === "fixed") return p.rate * probabilityAtLeast(p, months, r);
+  return (p.shape / p.rate) * probabilityAtLeast({ kind: "gamma", shape: p.shape + 1, rate: p.rate }, months, r);
 }

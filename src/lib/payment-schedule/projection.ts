@@ -1,4 +1,16 @@
-import { band80, fitPoissonGamma, posteriorRate, predictiveCount, probabilityAtLeast, rateMean, rateVariance, type RatePosterior, type SiteHistory } from "@/lib/forecast";
+import {
+  band80,
+  fitPoissonGamma,
+  meanRateTimesPoissonPmf,
+  meanRateTimesProbabilityAtLeast,
+  posteriorRate,
+  predictiveCount,
+  probabilityAtLeast,
+  rateMean,
+  rateVariance,
+  type RatePosterior,
+  type SiteHistory,
+} from "@/lib/forecast";
 import { DAYS_PER_MONTH, dayNumber, daysInMonth, localDate } from "./calendar";
 import { versionAt, type SiteInput } from "./earned-lines";
 import { PriceBook } from "./pricing";
@@ -13,10 +25,10 @@ import type { PaymentScheduleSnapshot } from "./snapshot";
 //    N-subjects-enrolled milestones, with the probability that the count is crossed in the month,
 //    and the visits of the new subjects given by `newSubjectVisitPlan` (days after enrolment),
 //    priced with the version in force at the month's start. Screen failures and the first-implant
-//    milestone are left out. Moments are exact for the model's visits (Poisson given the rate,
-//    plus the rate's own variance); milestones add Bernoulli variances (their covariance with
-//    visits is ignored). The 80% band is that of a gamma with the forecast part's mean and
-//    variance, added to the scheduled amount. Figures are estimates rounded to minor units.
+//    milestone are left out. Means and variances are exact under the model (Poisson given the
+//    rate, plus the rate's own variance), except that two milestones in one month are taken as
+//    uncorrelated. The 80% band is that of a gamma with the forecast part's mean and variance,
+//    added to the scheduled amount. Figures are estimates rounded to minor units.
 
 interface Bucket {
   label: string;
@@ -169,17 +181,24 @@ export function computeProjection(snapshot: PaymentScheduleSnapshot, inputs: rea
         }
         m.netMean += mean * sumNetLen;
         m.netVariance += mean * poissonPart + varRate * sumNetLen * sumNetLen;
-        // N-subjects-enrolled milestones not yet reached.
+        // N-subjects-enrolled milestones not yet reached: M = 1{the r-th new subject arrives in (e0, e1]}.
+        // Var adds p(1−p)·fee² and 2·fee·Cov(visits, M), exact under the model (from the Poisson
+        // process given λ, then over λ); covariances between two milestones are left out.
         const e0 = Math.min(t0, Math.max(0, stopT));
         const e1 = Math.min(t1, Math.max(0, stopT));
         for (const f of v.milestoneFees) {
           if (f.kind !== "nth_enrolled" || f.n == null || f.n <= h.count || e1 <= e0) continue;
+          const rate = post as RatePosterior;
           const need = f.n - h.count;
-          const p = probabilityAtLeast(post as RatePosterior, e1, need) - probabilityAtLeast(post as RatePosterior, e0, need);
-          const a = prices.price(v, f.amountMinor, true);
-          m.grossMean += p * Number(a.grossMinor);
-          m.netMean += p * Number(a.netMinor);
-          m.netVariance += p * (1 - p) * Number(a.netMinor) ** 2;
+          const p = probabilityAtLeast(rate, e1, need) - probabilityAtLeast(rate, e0, need);
+          const fee = Number(prices.price(v, f.amountMinor, true).netMinor);
+          const gross = Number(prices.price(v, f.amountMinor, true).grossMinor);
+          m.grossMean += p * gross;
+          m.netMean += p * fee;
+          let withinRate = 0;
+          for (const q of parts) withinRate += q.net * (overlap(q.lo, q.hi, 0, e1) * meanRateTimesPoissonPmf(rate, e1, need - 1) - overlap(q.lo, q.hi, 0, e0) * meanRateTimesPoissonPmf(rate, e0, need - 1));
+          const acrossRates = sumNetLen * (meanRateTimesProbabilityAtLeast(rate, e1, need) - meanRateTimesProbabilityAtLeast(rate, e0, need) - mean * p);
+          m.netVariance += p * (1 - p) * fee * fee + 2 * fee * (withinRate + acrossRates);
         }
       });
     }

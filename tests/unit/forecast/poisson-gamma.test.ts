@@ -5,6 +5,8 @@ import stdlibGammaQuantile from "@stdlib/stats-base-dists-gamma-quantile";
 import {
   band80,
   combinedRate,
+  meanRateTimesPoissonPmf,
+  meanRateTimesProbabilityAtLeast,
   fitPoissonGamma,
   gammaQuantile,
   posteriorRate,
@@ -84,6 +86,26 @@ describe("predictive counts of new enrolments", () => {
   it("Poisson limit: P(N ≥ 1) = 1 − e^{−λt}", () => {
     expect(probabilityAtLeast({ kind: "fixed", rate: 0.5 }, 2, 1)).toBeCloseTo(1 - Math.exp(-1), 12);
     expect(probabilityAtLeast({ kind: "fixed", rate: 0.5 }, 2, 0)).toBe(1);
+  });
+});
+
+describe("size-biased moments used for milestone covariances", () => {
+  it("E[λ·P(Poisson(λt) = k)] and E[λ·P(N(t) ≥ r)] match a seeded simulation of λ ~ Gamma(9, 14) within 1%", () => {
+    const gamma = gammaRandom.factory({ seed: SEED + 6 });
+    const post = { kind: "gamma", shape: 9, rate: 14 } as const;
+    let pmfSum = 0;
+    let tailSum = 0;
+    const n = 200_000;
+    for (let i = 0; i < n; i++) {
+      const lambda = gamma(9, 14);
+      const mu = lambda * 6;
+      let pmf = Math.exp(-mu);
+      for (let j = 1; j <= 3; j++) pmf *= mu / j; // P(Poisson(μ) = 3)
+      pmfSum += lambda * pmf;
+      tailSum += lambda * probabilityAtLeast({ kind: "fixed", rate: lambda }, 6, 4);
+    }
+    expect(Math.abs(meanRateTimesPoissonPmf(post, 6, 3) - pmfSum / n) / (pmfSum / n)).toBeLessThan(0.01);
+    expect(Math.abs(meanRateTimesProbabilityAtLeast(post, 6, 4) - tailSum / n) / (tailSum / n)).toBeLessThan(0.01);
   });
 });
 
