@@ -9,3 +9,4 @@ export * from "./protocol";
 export * from "./budgets";
 export * from "./acknowledgements";
 export * from "./binder";
+export * from "./subjects";
