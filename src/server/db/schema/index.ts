@@ -10,3 +10,4 @@ export * from "./budgets";
 export * from "./acknowledgements";
 export * from "./binder";
 export * from "./subjects";
+export * from "./payments";
