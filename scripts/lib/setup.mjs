@@ -2,6 +2,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
 import { createServer } from "node:net";
+import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { log, run, startChild, waitForHttp, waitForPort } from "./proc.mjs";
@@ -20,15 +21,23 @@ function fileHash(files) {
   return h.digest("hex");
 }
 
-/** `npm ci` when node_modules is missing or older than package-lock.json. */
+/**
+ * `npm ci` when node_modules is missing; `npm install` when package-lock.json changed since the last
+ * install (it never deletes node_modules under processes that are using it).
+ */
 export function ensureDependencies() {
   const lock = path.join(projectDir, "package-lock.json");
   const marker = path.join(projectDir, "node_modules", ".cairn-lock-hash");
   const want = fileHash([lock]);
   if (existsSync(marker) && readFileSync(marker, "utf8") === want) return;
-  log("Installing npm packages (npm ci) …");
-  run("npm", ["ci", "--no-audit", "--no-fund"], { cwd: projectDir });
-  writeFileSync(marker, want);
+  const fresh = !existsSync(path.join(projectDir, "node_modules"));
+  log(fresh ? "Installing npm packages (npm ci) …" : "package-lock.json changed: updating npm packages (npm install) …");
+  const install = `${fresh ? "npm ci" : "npm install"} --no-audit --no-fund`;
+  // Under a lock, re-checking the marker: two scripts started together install once, and never
+  // delete node_modules under each other.
+  const script = `[ "$(cat '${marker}' 2>/dev/null)" = '${want}' ] || { ${install} && printf %s '${want}' > '${marker}'; }`;
+  if (existsSync("/usr/bin/flock")) run("/usr/bin/flock", [path.join(tmpdir(), "cairn-npm.lock"), "sh", "-c", script], { cwd: projectDir });
+  else run("sh", ["-c", script], { cwd: projectDir });
 }
 
 /** Debian's chromium for the browser tests, installed with apt-get when missing. */
