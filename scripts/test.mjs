@@ -9,7 +9,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { spawn } from "node:child_process";
 import { clusterDir, ensurePostgresInstalled, removeCluster, startCluster, stopCluster } from "./lib/postgres.mjs";
-import { log, stopChild } from "./lib/proc.mjs";
+import { acquireDirLock, log, stopChild } from "./lib/proc.mjs";
 import { appEnv, buildApp, ensureChromium, ensureDependencies, freePort, migrateAndSeed, projectDir, startApp, startFakes } from "./lib/setup.mjs";
 
 const t0 = Date.now();
@@ -18,9 +18,11 @@ const wantsBrowser = args.length === 0 || args.some((a) => a.includes("browser")
 const children = [];
 let pg;
 let fakesDir;
+let releaseBuildLock;
 
 function cleanup() {
   for (const c of children.reverse()) stopChild(c);
+  releaseBuildLock?.();
   if (pg) {
     stopCluster(pg);
     removeCluster(pg);
@@ -60,6 +62,7 @@ try {
   children.push(await startFakes(env, ports, { silent: true }));
   migrateAndSeed(env);
   if (wantsBrowser) {
+    releaseBuildLock = await acquireDirLock(path.join(projectDir, ".cairn", "build.lock"), { what: "app build" });
     buildApp({ ...env, NODE_ENV: "production" });
     children.push(await startApp(env, appPort, { silent: true }));
     env.CAIRN_APP_URL = `http://127.0.0.1:${appPort}`;

@@ -78,3 +78,41 @@ export async function waitForHttp(url, { timeoutMs = 60_000, child } = {}) {
     await new Promise((r) => setTimeout(r, 250));
   }
 }
+
+/**
+ * A cross-process lock on a directory name (mkdir is atomic). Browser test runs in one checkout
+ * share `.next`, so they take turns; a lock left by a dead process is taken over.
+ */
+export async function acquireDirLock(dir, { what = "lock" } = {}) {
+  const { mkdirSync, readFileSync, rmSync, writeFileSync } = await import("node:fs");
+  let announced = false;
+  for (;;) {
+    try {
+      mkdirSync(dir);
+      writeFileSync(`${dir}/pid`, String(process.pid));
+      return () => rmSync(dir, { recursive: true, force: true });
+    } catch (err) {
+      if (err.code !== "EEXIST") throw err;
+      let holder = NaN;
+      try {
+        holder = Number(readFileSync(`${dir}/pid`, "utf8"));
+      } catch {}
+      let alive = false;
+      if (Number.isInteger(holder) && holder > 0) {
+        try {
+          process.kill(holder, 0);
+          alive = true;
+        } catch {}
+      }
+      if (!alive && Number.isInteger(holder)) {
+        rmSync(dir, { recursive: true, force: true });
+        continue;
+      }
+      if (!announced) {
+        log(`Waiting for another run holding the ${what} …`);
+        announced = true;
+      }
+      await new Promise((r) => setTimeout(r, 1000));
+    }
+  }
+}
