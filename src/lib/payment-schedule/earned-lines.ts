@@ -32,7 +32,7 @@ export class CycleBook {
 
   period(date: string, cycle: PaymentCycle): CyclePeriod {
     // Numeric key (year·12 + month; −(year·4 + quarter) − 1 for quarters): nothing to hash per line.
-    const year = Number(date.slice(0, 4));
+    const year = (date.charCodeAt(0) - 48) * 1000 + (date.charCodeAt(1) - 48) * 100 + (date.charCodeAt(2) - 48) * 10 + (date.charCodeAt(3) - 48);
     const month = (date.charCodeAt(5) - 48) * 10 + (date.charCodeAt(6) - 48);
     const k = cycle === "monthly" ? year * 12 + month : -(year * 4 + Math.floor((month - 1) / 3)) - 1;
     let p = this.periods.get(k);
@@ -182,7 +182,8 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
     if (e.order === 0) {
       enrolled++;
       const vE = versionAt(versions, e.date);
-      while (overCap.length > 0 && paidFailures < paidScreenFailuresAllowed(vE?.screenFailureCap, enrolled)) {
+      // No budget in force on the enrolment date: the cap cannot be read, nothing is lifted.
+      while (vE && overCap.length > 0 && paidFailures < paidScreenFailuresAllowed(vE.screenFailureCap, enrolled)) {
         const d = overCap.shift() as LineDraft;
         paidFailures++;
         d.overCap = false;
