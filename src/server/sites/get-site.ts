@@ -30,3 +30,11 @@ export async function siteScope(tx: Tx, { siteId }: { siteId: string }) {
   if (!row) throw notFound("That site");
   return { studyId: row.studyId, siteId };
 }
+
+/** Scope of a study-level list narrowed to one site by ?siteId: that site must be in the study. */
+export async function studySiteScope(tx: Tx, { studyId, siteId }: { studyId: string; siteId?: string }) {
+  if (!siteId) return { studyId };
+  const scope = await siteScope(tx, { siteId });
+  if (scope.studyId !== studyId) throw notFound("That site");
+  return scope;
+}

@@ -9,10 +9,20 @@ import type { Actor } from "@/lib/auth/authorize";
 import { loadCalendars } from "./load-calendars";
 import { reconcileSubjectDeviations } from "./reconcile-subject-deviations";
 import type { RecordVisitInput } from "./visit-schemas";
+import type { VersionInForceAtSite } from "@/server/protocol/in-force";
+import { versionInForceOn } from "@/lib/visits/subject-calendar";
+
+// A visit is done under the version in force at the site on its date (a late entry of a visit
+// done before an amendment keeps the earlier schedule), when that version has the visit.
+function versionForNewRecord(versions: readonly VersionInForceAtSite[], actualDate: string | null, visitCode: string): string | null {
+  if (!actualDate) return null;
+  const v = versionInForceOn(versions, actualDate);
+  return v && v.schedule.some((x) => x.code === visitCode) ? v.versionId : null;
+}
 
 /**
- * Records (or corrects) a visit as done or missed. A new record follows the version whose schedule
- * the subject's pending visit shows (the version in force at the site today); a correction keeps
+ * Records (or corrects) a visit as done or missed. A new record follows the version in force at the
+ * site on the visit date (else the one the pending visit shows, in force today); a correction keeps
  * the version it was first recorded under. A change of date or outcome clears the monitor's
  * verification. Deviations are reconciled afterwards.
  */
@@ -59,7 +69,7 @@ export async function recordVisit(
   } else {
     [after] = (await tx
       .insert(visitRecords)
-      .values({ subjectId, visitCode: input.visitCode, versionId: entry!.versionId, outcome: input.outcome, actualDate, dataEnteredOn, recordedBy: actor.userId })
+      .values({ subjectId, visitCode: input.visitCode, versionId: versionForNewRecord(loaded!.versions, actualDate, input.visitCode) ?? entry!.versionId, outcome: input.outcome, actualDate, dataEnteredOn, recordedBy: actor.userId })
       .returning()) as [VisitRecord];
   }
   await audit({ action: before ? "visit.correct" : "visit.record", entityType: "visit_record", entityId: after.id, before, after: { ...after, subjectCode: subject.code } });
