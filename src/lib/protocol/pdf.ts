@@ -26,6 +26,8 @@ export interface EthicsPackageInput {
   visitSchedule: readonly ScheduledVisit[];
   parent?: { versionLabel: string; doc: unknown; visitSchedule: readonly ScheduledVisit[] } | null;
   summaryOfChanges: readonly SummaryRow[];
+  /** Which parts to include (default all three): an ethics committee may want them as separate files. */
+  parts?: readonly ("clean" | "tracked" | "summary")[];
   /** Tests pass false so the content streams can be read. */
   compress?: boolean;
   /** Folder of the @fontsource woff files (default: node_modules under the working directory). */
@@ -357,7 +359,9 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
   const title = `${input.studyCode}${input.studyTitle ? ` — ${input.studyTitle}` : ""}`;
   const subtitle = `Protocol version ${input.versionLabel}${input.amendmentLabel ? ` · ${input.amendmentLabel}` : ""} · ${input.date}`;
 
+  const parts = new Set(input.parts ?? ["clean", "tracked", "summary"]);
   // Part 1: clean copy.
+  if (parts.has("clean")) {
   partTitle(pdf, title, `${subtitle} · Clean copy`);
   const numbers = blockSectionNumbers(doc);
   topLevelBlocks(doc).forEach((block, i) => writeBlock(pdf, block, numbers[i] ?? null));
@@ -365,9 +369,10 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
   pdf.moveDown(0.6).font("bold").fontSize(13).fillColor(INK).text("Schedule of visits", pdf.page.margins.left, pdf.y);
   pdf.moveDown(0.3);
   writeTable(pdf, visitRows(input.visitSchedule), { header: true, size: 8.5, widths: visitWidths(contentWidth(pdf)) });
+  }
 
   // Part 2: tracked changes against the parent.
-  if (input.parent) {
+  if (input.parent && parts.has("tracked")) {
     partTitle(pdf, `${title}: tracked changes`, `Version ${input.versionLabel} compared with version ${input.parent.versionLabel}`);
     pdf.font("regular").fontSize(9).fillColor(INK).text("Key: ", { continued: true });
     pdf.fillColor(INSERTED).text("inserted text is underlined", { underline: true, continued: true });
@@ -404,6 +409,7 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
   }
 
   // Part 3: summary of changes.
+  if (parts.has("summary")) {
   partTitle(pdf, `${title}: summary of changes`, subtitle);
   if (!input.summaryOfChanges.length) pdf.font("regular").fontSize(10).text("No changes recorded.");
   else {
@@ -414,6 +420,8 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
       widths: [0.18, 0.28, 0.28, 0.26].map((f) => f * total),
     });
   }
+  }
+  if (!input.parent && parts.size === 1 && parts.has("tracked")) partTitle(pdf, `${title}: tracked changes`, "The original protocol has no earlier version to compare with.");
 
   writeFooters(pdf, input);
   pdf.end();
