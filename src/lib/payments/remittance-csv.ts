@@ -1,0 +1,53 @@
+import { formatMinor } from "@/lib/money";
+
+// Remittance advice as CSV (RFC 4180: CRLF line ends, fields with a comma, quote or line break
+// quoted, quotes doubled). Amounts in major units without grouping so spreadsheets read numbers.
+
+export interface RemittanceLine {
+  lineKey: string;
+  kind: string;
+  description: string;
+  serviceDate: string;
+  dueDate: string;
+  amountMinor: bigint;
+}
+
+export interface RemittanceHeader {
+  studyCode: string;
+  siteCode: string;
+  runNumber: number;
+  transferReference: string;
+  currency: string;
+  amountMinor: bigint;
+  sentOn: string;
+}
+
+function field(value: string): string {
+  return /[",\r\n]/.test(value) ? `"${value.replaceAll('"', '""')}"` : value;
+}
+
+export const remittanceColumns = ["Study", "Site", "Run", "Transfer", "Line", "Kind", "Description", "Service date", "Due date", "Currency", "Amount"] as const;
+
+export function remittanceCsv(header: RemittanceHeader, lines: readonly RemittanceLine[]): string {
+  const rows: string[][] = [[...remittanceColumns]];
+  let total = 0n;
+  for (const l of lines) {
+    total += l.amountMinor;
+    rows.push([
+      header.studyCode,
+      header.siteCode,
+      String(header.runNumber),
+      header.transferReference,
+      l.lineKey,
+      l.kind,
+      l.description,
+      l.serviceDate,
+      l.dueDate,
+      header.currency,
+      formatMinor(l.amountMinor, header.currency, { grouping: false, withCode: false }),
+    ]);
+  }
+  if (total !== header.amountMinor) throw new Error(`Remittance lines sum to ${total}, the payment is ${header.amountMinor}`);
+  rows.push([header.studyCode, header.siteCode, String(header.runNumber), header.transferReference, "TOTAL", "", "", "", "", header.currency, formatMinor(total, header.currency, { grouping: false, withCode: false })]);
+  return rows.map((r) => r.map(field).join(",")).join("\r\n") + "\r\n";
+}
