@@ -1,0 +1,3 @@
+export * from "./convert";
+export * from "./statement-csv";
+export * from "./line-labels";

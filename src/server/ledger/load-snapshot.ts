@@ -1,0 +1,188 @@
+import "server-only";
+import { and, asc, eq, inArray, isNotNull, sql } from "drizzle-orm";
+import type { Tx } from "@/server/db/client";
+import { paymentsRecorded, passThroughInvoices, siteStatusEvents, sites, studies } from "@/server/db/schema";
+import { subjects, visitRecords } from "@/server/db/schema/subjects";
+import type { PgColumn } from "drizzle-orm/pg-core";
+import { notFound } from "@/server/api/errors";
+import { listBudgetVersions, toEngineVersion } from "@/server/budgets/queries";
+import { listVersionsInForceAtSites } from "@/server/protocol/in-force";
+import { CalendarInputError, computeSubjectCalendar } from "@/lib/visits";
+import { localDate, type PaymentScheduleSnapshot, type ProjectionInput } from "@/lib/payment-schedule";
+import type { SubjectStatus } from "@/lib/subjects/subject-states";
+
+// Builds the payment-schedule engine's input for one site, some sites or the whole study: a few
+// set-based queries (no per-row queries), then the pure engine does the rest.
+
+export type LedgerSite = { id: string; code: string; name: string; currency: string; timeZone: string; status: string };
+
+export interface LoadedSnapshot {
+  study: { id: string; code: string; reportingCurrency: string };
+  sites: LedgerSite[];
+  snapshot: PaymentScheduleSnapshot;
+}
+
+const NO_SITE = "00000000-0000-4000-8000-000000000000";
+const ENROLLED_STATES: SubjectStatus[] = ["enrolled", "implanted", "follow_up"];
+
+export async function loadScheduleSnapshot(
+  tx: Tx,
+  { studyId, siteIds, asOf, projection = false }: { studyId: string; siteIds: "all" | readonly string[]; asOf: string; projection?: boolean },
+): Promise<LoadedSnapshot> {
+  const [study] = await tx.select({ id: studies.id, code: studies.code, reportingCurrency: studies.reportingCurrency }).from(studies).where(eq(studies.id, studyId)).limit(1);
+  if (!study) throw notFound("That study");
+  const siteFilter = siteIds === "all" ? undefined : inArray(sites.id, siteIds.length ? [...siteIds] : [NO_SITE]);
+  const siteRows = await tx
+    .select({ id: sites.id, code: sites.code, name: sites.name, currency: sites.currency, timeZone: sites.timeZone, status: sites.status })
+    .from(sites)
+    .where(and(eq(sites.studyId, studyId), siteFilter))
+    .orderBy(asc(sites.code));
+  const ids = siteRows.map((s) => s.id);
+  const inSites = (col: PgColumn) => inArray(col, ids.length ? ids : [NO_SITE]);
+
+  const [steps, versions, subjectRows, visitRows, invoices, payments] = await Promise.all([
+    tx
+      .select({ siteId: siteStatusEvents.siteId, status: siteStatusEvents.toStatus, on: sql<string>`min(${siteStatusEvents.effectiveOn})::text` })
+      .from(siteStatusEvents)
+      .where(and(inSites(siteStatusEvents.siteId), inArray(siteStatusEvents.toStatus, ["open", "enrolment_closed", "closed_out"])))
+      .groupBy(siteStatusEvents.siteId, siteStatusEvents.toStatus),
+    listBudgetVersions(tx, { siteIds: ids }),
+    tx
+      .select({
+        id: subjects.id,
+        siteId: subjects.siteId,
+        code: subjects.code,
+        status: subjects.status,
+        consentDate: subjects.consentDate,
+        screeningDate: subjects.screeningDate,
+        enrolmentDate: subjects.enrolmentDate,
+        implantDate: subjects.implantDate,
+        endedOn: subjects.endedOn,
+      })
+      .from(subjects)
+      .where(and(eq(subjects.studyId, studyId), siteIds === "all" ? undefined : inSites(subjects.siteId))),
+    tx
+      .select({
+        id: visitRecords.id,
+        subjectId: visitRecords.subjectId,
+        visitCode: visitRecords.visitCode,
+        versionId: visitRecords.versionId,
+        outcome: visitRecords.outcome,
+        actualDate: visitRecords.actualDate,
+        dataEnteredOn: visitRecords.dataEnteredOn,
+        verifiedOn: visitRecords.verifiedOn,
+      })
+      .from(visitRecords)
+      .innerJoin(subjects, eq(subjects.id, visitRecords.subjectId))
+      .where(and(eq(subjects.studyId, studyId), siteIds === "all" ? undefined : inSites(subjects.siteId), isNotNull(visitRecords.actualDate))),
+    tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
+    tx
+      .select({ lineKey: paymentsRecorded.lineKey, amountMinor: paymentsRecorded.amountMinor, paidOn: paymentsRecorded.paidOn })
+      .from(paymentsRecorded)
+      .where(and(eq(paymentsRecorded.studyId, studyId), siteIds === "all" ? undefined : inSites(paymentsRecorded.siteId))),
+  ]);
+
+  const stepOf = new Map<string, string>();
+  for (const s of steps) stepOf.set(`${s.siteId}:${s.status}`, s.on);
+
+  const snapshot: PaymentScheduleSnapshot = {
+    asOf,
+    sites: siteRows.map((s) => ({
+      id: s.id,
+      code: s.code,
+      currency: s.currency,
+      timeZone: s.timeZone,
+      activatedOn: stepOf.get(`${s.id}:open`) ?? null,
+      enrolmentClosedOn: stepOf.get(`${s.id}:enrolment_closed`) ?? null,
+      closedOutOn: stepOf.get(`${s.id}:closed_out`) ?? null,
+    })),
+    budgetVersions: versions.map((v) => toEngineVersion(v, v.items)),
+    passThroughInvoices: invoices.map((i) => ({ id: i.id, siteId: i.siteId, approvedOn: i.approvedOn, amountMinor: i.amountMinor, description: i.description })),
+    subjects: subjectRows.map((s) => ({
+      id: s.id,
+      siteId: s.siteId,
+      code: s.code,
+      screenedOn: s.screeningDate ?? s.consentDate,
+      screenFailedOn: s.status === "screen_failed" ? (s.endedOn ?? s.screeningDate ?? s.consentDate) : null,
+      enrolledOn: s.enrolmentDate,
+      implantedOn: s.implantDate,
+    })),
+    visits: visitRows.map((v) => ({
+      id: v.id,
+      subjectId: v.subjectId,
+      visitCode: v.visitCode,
+      serviceDate: v.actualDate!,
+      status: v.outcome,
+      dataEnteredOn: v.dataEnteredOn,
+      verifiedOn: v.verifiedOn,
+    })),
+    payments,
+  };
+
+  if (projection) snapshot.projection = await projectionInput(tx, { siteRows, subjectRows, visitRows, asOf });
+  return { study, sites: siteRows, snapshot };
+}
+
+/** Upcoming calendar visits of enrolled subjects, and the visit plan of a newly enrolled subject. */
+async function projectionInput(
+  tx: Tx,
+  {
+    siteRows,
+    subjectRows,
+    visitRows,
+    asOf,
+  }: {
+    siteRows: LedgerSite[];
+    subjectRows: { id: string; siteId: string; code: string; status: SubjectStatus; consentDate: string; enrolmentDate: string | null; implantDate: string | null; endedOn: string | null }[];
+    visitRows: { subjectId: string; visitCode: string; versionId: string; outcome: "done" | "missed"; actualDate: string | null; dataEnteredOn: string | null; verifiedOn: string | null }[];
+    asOf: string;
+  },
+): Promise<ProjectionInput> {
+  const inForce = await listVersionsInForceAtSites(tx, { siteIds: siteRows.map((s) => s.id) });
+  const zone = new Map(siteRows.map((s) => [s.id, s.timeZone]));
+  const visitsBySubject = new Map<string, typeof visitRows>();
+  for (const v of visitRows) {
+    const list = visitsBySubject.get(v.subjectId) ?? [];
+    list.push(v);
+    visitsBySubject.set(v.subjectId, list);
+  }
+  const scheduledVisits: ProjectionInput["scheduledVisits"] = [];
+  const gaps: number[] = [];
+  for (const s of subjectRows) {
+    if (s.enrolmentDate && s.implantDate) gaps.push((Date.parse(s.implantDate) - Date.parse(s.enrolmentDate)) / 86_400_000);
+    if (!ENROLLED_STATES.includes(s.status)) continue;
+    const versions = inForce.get(s.siteId) ?? [];
+    if (versions.length === 0) continue;
+    let calendar: ReturnType<typeof computeSubjectCalendar>;
+    // A subject whose records the calendar cannot place is left out of the projection, not fatal.
+    try {
+      calendar = computeSubjectCalendar({
+      subjectCode: s.code,
+      status: s.status,
+      endedOn: s.endedOn,
+      anchors: { consentDate: s.consentDate, enrolmentDate: s.enrolmentDate, implantDate: s.implantDate },
+      versions,
+      recordedVisits: (visitsBySubject.get(s.id) ?? []).map((v) => ({ visitCode: v.visitCode, versionId: v.versionId, actualDate: v.actualDate, status: v.outcome, dataEnteredOn: v.dataEnteredOn, verifiedOn: v.verifiedOn })),
+      asOf: localDate(asOf, zone.get(s.siteId) ?? "UTC"),
+      dueSoonDays: 0,
+      });
+    } catch (err) {
+      if (err instanceof CalendarInputError) continue;
+      throw err;
+    }
+    for (const e of calendar.entries) {
+      if (!e.recorded && e.targetDate && (e.state === "upcoming" || e.state === "due" || e.state === "overdue")) scheduledVisits.push({ subjectId: s.id, visitCode: e.visitCode, targetDate: e.targetDate });
+    }
+  }
+  // A new subject follows the newest schedule in force anywhere; implant-anchored visits are placed
+  // after enrolment by the median enrolment-to-implant gap observed in the study.
+  gaps.sort((a, b) => a - b);
+  const implantGap = gaps.length ? Math.round(gaps[Math.floor(gaps.length / 2)]!) : 0;
+  let newest: { inForceFrom: string; schedule: { code: string; anchor: string; dayOffset: number }[] } | null = null;
+  for (const list of inForce.values()) for (const v of list) if (!newest || v.inForceFrom > newest.inForceFrom) newest = v;
+  const newSubjectVisitPlan = (newest?.schedule ?? []).map((v) => ({
+    visitCode: v.code,
+    dayOffset: Math.max(0, v.dayOffset + (v.anchor === "implant" ? implantGap : 0)),
+  }));
+  return { scheduledVisits, newSubjectVisitPlan, horizonMonths: 12 };
+}

@@ -1,0 +1,21 @@
+/** Minimal RFC 4180 reader for the tests: quoted fields, doubled quotes, CRLF rows. */
+export function parseCsv(text: string): string[][] {
+  const rows: string[][] = [];
+  let row: string[] = [];
+  let field = "";
+  let quoted = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]!;
+    if (quoted) {
+      if (c === '"' && text[i + 1] === '"') (field += '"'), i++;
+      else if (c === '"') quoted = false;
+      else field += c;
+    } else if (c === '"') quoted = true;
+    else if (c === ",") row.push(field), (field = "");
+    else if (c === "\r" && text[i + 1] === "\n") {
+      row.push(field), rows.push(row), (row = []), (field = ""), i++;
+    } else field += c;
+  }
+  if (field || row.length) row.push(field), rows.push(row);
+  return rows;
+}
