@@ -138,6 +138,7 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
     type CycleAcc = { period: EarnedLine["cycle"]; dueDate: string; lineCount: number; gross: MoneySum; overhead: MoneySum; holdback: MoneySum; net: MoneySum; paid: MoneySum; outstanding: MoneySum; overdue: MoneySum };
     const cyclesOfSite = new Map<EarnedLine["cycle"], Map<string, CycleAcc>>();
     const ledgerByCycle = new Map<string, { label: string; withheld: MoneySum; released: MoneySum }>();
+    let lastCycle: CycleAcc | null = null;
     for (const l of perSite.get(site.id) as EarnedLine[]) {
       const first = payments.length === 0 ? undefined : l.kind === "visit" ? firstByVisitId.get(l.source.id) : firstByKey.get(l.key);
       for (let i = first ?? -1; i >= 0; i = nextPayment[i] as number) {
@@ -160,47 +161,60 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
       const overdue = l.outstandingMinor > 0n && l.dueDate < asOf;
       l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
 
-      sums.gross.add(l.grossMinor);
-      sums.overhead.add(l.overheadMinor);
-      sums.holdback.add(l.holdbackMinor);
-      sums.net.add(l.netMinor);
-      sums.paid.add(l.paidMinor);
-      sums.outstanding.add(l.outstandingMinor);
+      // Each amount converted once, then added to the site's and the cycle's sums.
+      const g = Number(l.grossMinor);
+      const o = Number(l.overheadMinor);
+      const h = Number(l.holdbackMinor);
+      const n = Number(l.netMinor);
+      const p = Number(l.paidMinor);
+      const out = Number(l.outstandingMinor);
+      sums.gross.add(l.grossMinor, g);
+      sums.overhead.add(l.overheadMinor, o);
+      sums.holdback.add(l.holdbackMinor, h);
+      sums.net.add(l.netMinor, n);
+      sums.paid.add(l.paidMinor, p);
+      sums.outstanding.add(l.outstandingMinor, out);
       if (l.unappliedMinor !== 0n) sums.unapplied.add(l.unappliedMinor);
-      if (overdue) sums.overdue.add(l.outstandingMinor);
+      if (overdue) sums.overdue.add(l.outstandingMinor, out);
       lineCount++;
       if (l.holdbackMinor < 0n) {
         sums.released.add(-l.holdbackMinor);
         releaseLineKey = l.key;
-      } else sums.withheld.add(l.holdbackMinor);
+      } else sums.withheld.add(l.holdbackMinor, h);
 
-      let byDue = cyclesOfSite.get(l.cycle);
-      if (!byDue) {
-        byDue = new Map();
-        cyclesOfSite.set(l.cycle, byDue);
-      }
-      let c = byDue.get(l.dueDate);
+      // Lines come sorted by trigger date: most follow a line of the same cycle.
+      let c: CycleAcc | undefined = lastCycle !== null && lastCycle.period === l.cycle && lastCycle.dueDate === l.dueDate ? lastCycle : undefined;
       if (!c) {
-        c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
-        byDue.set(l.dueDate, c);
+        let byDue = cyclesOfSite.get(l.cycle);
+        if (!byDue) {
+          byDue = new Map();
+          cyclesOfSite.set(l.cycle, byDue);
+        }
+        c = byDue.get(l.dueDate);
+        if (!c) {
+          c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
+          byDue.set(l.dueDate, c);
+        }
+        lastCycle = c;
       }
       c.lineCount++;
-      c.gross.add(l.grossMinor);
-      c.overhead.add(l.overheadMinor);
-      c.holdback.add(l.holdbackMinor);
-      c.net.add(l.netMinor);
-      c.paid.add(l.paidMinor);
-      c.outstanding.add(l.outstandingMinor);
-      if (overdue) c.overdue.add(l.outstandingMinor);
+      c.gross.add(l.grossMinor, g);
+      c.overhead.add(l.overheadMinor, o);
+      c.holdback.add(l.holdbackMinor, h);
+      c.net.add(l.netMinor, n);
+      c.paid.add(l.paidMinor, p);
+      c.outstanding.add(l.outstandingMinor, out);
+      if (overdue) c.overdue.add(l.outstandingMinor, out);
 
       if (l.holdbackMinor !== 0n) {
-        let h = ledgerByCycle.get(l.cycle.label);
-        if (!h) {
-          h = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
-          ledgerByCycle.set(l.cycle.label, h);
+        const h0 = h;
+        let hb = ledgerByCycle.get(l.cycle.label);
+        if (!hb) {
+          hb = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
+          ledgerByCycle.set(l.cycle.label, hb);
         }
-        if (l.holdbackMinor > 0n) h.withheld.add(l.holdbackMinor);
-        else h.released.add(-l.holdbackMinor);
+        if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h0);
+        else hb.released.add(-l.holdbackMinor);
       }
     }
     const withheld = sums.withheld.value;

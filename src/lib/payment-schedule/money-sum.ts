@@ -5,12 +5,12 @@ export class MoneySum {
   private small = 0;
   private big: bigint | null = null;
 
-  add(x: bigint): void {
+  /** Add x; pass v = Number(x) when it is already at hand, to convert once for several sums. */
+  add(x: bigint, v: number = Number(x)): void {
     if (this.big !== null) {
       this.big += x;
       return;
     }
-    const v = Number(x);
     const s = this.small + v;
     if (Number.isSafeInteger(v) && Number.isSafeInteger(s)) this.small = s;
     else this.big = BigInt(this.small) + x;
