@@ -202,6 +202,8 @@ export function timeToNMore(n: number, combined: RatePosterior): { mean: number;
 
 export const BAND_LOW_P = 0.1;
 export const BAND_HIGH_P = 0.9;
+/** Standard normal 90th percentile (from memory; tests check the band against gamma quantiles). */
+const Z_90 = 1.2815515655446004;
 
 /**
  * 80% band of a non-negative quantity known by its mean and variance: the gamma with the same two
@@ -211,6 +213,11 @@ export function band80(mean: number, variance: number): { low: number; high: num
   if (!(mean > 0) || !(variance > 0)) return { low: Math.max(0, mean), high: Math.max(0, mean) };
   const shape = (mean * mean) / variance;
   const rate = mean / variance;
+  if (shape > 1e6) {
+    // The gamma is then normal to ~1e-3 relative skew; the series for P(a, x) would be slow.
+    const half = Z_90 * Math.sqrt(variance);
+    return { low: Math.max(0, mean - half), high: mean + half };
+  }
   return { low: gammaQuantile(BAND_LOW_P, shape, rate), high: gammaQuantile(BAND_HIGH_P, shape, rate) };
 }
 

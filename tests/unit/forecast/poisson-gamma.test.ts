@@ -163,6 +163,10 @@ describe("gamma quantiles and the 80% band", () => {
     expect(low).toBeCloseTo(stdlibGammaQuantile(0.1, 25, 0.25), 8);
     expect(high).toBeCloseTo(stdlibGammaQuantile(0.9, 25, 0.25), 8);
     expect(band80(5, 0)).toEqual({ low: 5, high: 5 });
+    // Very large shapes switch to the normal limit: still within 1e-6 of the gamma quantiles.
+    const big = band80(1e9, 1e9 * 1e9 / 4e7); // shape 4e7
+    expect(Math.abs(big.low - stdlibGammaQuantile(0.1, 4e7, 4e7 / 1e9)) / big.low).toBeLessThan(1e-6);
+    expect(Math.abs(big.high - stdlibGammaQuantile(0.9, 4e7, 4e7 / 1e9)) / big.high).toBeLessThan(1e-6);
   });
 
   it("covers about 80% of a simulated predictive count (±2 points)", () => {
