@@ -23,6 +23,9 @@ export function DocumentUpload({
   maxBytes,
   onUploaded,
   label = "Upload a file",
+  binder,
+  disabled = false,
+  testId,
 }: {
   studyId: string;
   siteId: string | null;
@@ -30,6 +33,10 @@ export function DocumentUpload({
   maxBytes: number;
   onUploaded?: (doc: { id: string; fileName: string }) => void;
   label?: string;
+  /** For an essential document of a site's binder: its type, person and dates. */
+  binder?: { documentTypeId: string; personId: string | null; issuedOn: string | null; expiresOn: string | null };
+  disabled?: boolean;
+  testId?: string;
 }) {
   const [stage, setStage] = useState<Stage>("idle");
   const [progress, setProgress] = useState(0);
@@ -48,7 +55,7 @@ export function DocumentUpload({
       setStage("requesting");
       const { document, uploadUrl } = await apiFetch<{ document: { id: string; fileName: string }; uploadUrl: string }>(
         `/api/v1/studies/${studyId}/documents`,
-        { method: "POST", json: { fileName: file.name, contentType: file.type, sizeBytes: file.size, sha256, siteId, purpose } },
+        { method: "POST", json: { fileName: file.name, contentType: file.type, sizeBytes: file.size, sha256, siteId, purpose, ...(binder ? { binder } : {}) } },
       );
       setStage("uploading");
       await new Promise<void>((resolve, reject) => {
@@ -74,14 +81,14 @@ export function DocumentUpload({
 
   const busy = stage === "hashing" || stage === "requesting" || stage === "uploading" || stage === "verifying";
   return (
-    <div className="space-y-2">
-      <label className="btn-secondary cursor-pointer">
+    <div className="space-y-2" data-testid={testId}>
+      <label className={`btn-secondary ${disabled ? "cursor-not-allowed opacity-60" : "cursor-pointer"}`}>
         <Upload size={14} aria-hidden /> {label}
         <input
           type="file"
           className="sr-only"
           accept={accept}
-          disabled={busy}
+          disabled={busy || disabled}
           onChange={(e) => {
             const f = e.target.files?.[0];
             if (f) void upload(f);

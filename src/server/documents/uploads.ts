@@ -1,6 +1,6 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { and, eq } from "drizzle-orm";
+import { and, desc, eq, isNull, ne } from "drizzle-orm";
 import { env } from "@/env";
 import type { Tx } from "@/server/db/client";
 import { documents, type DocumentRow } from "@/server/db/schema";
@@ -13,12 +13,27 @@ export const maxUploadBytes = () => env.UPLOAD_MAX_BYTES;
 /** Record a pending document and issue a presigned PUT URL for it. */
 export async function createUpload(
   tx: Tx,
-  { studyId, siteId, purpose, request, uploaderId }: { studyId: string; siteId: string | null; purpose: string; request: UploadRequest; uploaderId: string },
+  {
+    studyId,
+    siteId,
+    purpose,
+    request,
+    uploaderId,
+    binder,
+  }: {
+    studyId: string;
+    siteId: string | null;
+    purpose: string;
+    request: UploadRequest;
+    uploaderId: string;
+    /** Binder fields (document type, person, dates, review state) for an essential document. */
+    binder?: Pick<DocumentRow, "documentTypeId" | "personId" | "issuedOn" | "expiresOn" | "reviewState">;
+  },
 ) {
   const storageKey = `${studyId}/${siteId ?? "study"}/${purpose}/${randomUUID()}`;
   const [row] = await tx
     .insert(documents)
-    .values({ studyId, siteId, purpose, storageKey, fileName: request.fileName, contentType: request.contentType, sizeBytes: request.sizeBytes, sha256: request.sha256, uploaderId })
+    .values({ studyId, siteId, purpose, storageKey, fileName: request.fileName, contentType: request.contentType, sizeBytes: request.sizeBytes, sha256: request.sha256, uploaderId, ...binder })
     .returning();
   const uploadUrl = await presignUpload(storageKey, request.contentType, request.sizeBytes);
   return { document: row!, uploadUrl };
@@ -36,9 +51,23 @@ export async function completeUpload(tx: Tx, doc: DocumentRow) {
   const stored = await hashStoredObject(doc.storageKey);
   if (!stored) throw unprocessable("The file has not arrived in storage yet. Upload it, then try again.");
   const matches = stored.sha256 === doc.sha256 && stored.sizeBytes === doc.sizeBytes;
+  // A stored binder document supersedes the current version of the same item (the old one stays readable).
+  const previous =
+    matches && doc.documentTypeId
+      ? await tx.query.documents.findFirst({
+          where: and(
+            eq(documents.documentTypeId, doc.documentTypeId),
+            doc.siteId ? eq(documents.siteId, doc.siteId) : isNull(documents.siteId),
+            doc.personId ? eq(documents.personId, doc.personId) : isNull(documents.personId),
+            eq(documents.state, "stored"),
+            ne(documents.id, doc.id),
+          ),
+          orderBy: desc(documents.createdAt),
+        })
+      : undefined;
   const [updated] = await tx
     .update(documents)
-    .set({ state: matches ? "stored" : "rejected_checksum", verifiedAt: new Date() })
+    .set({ state: matches ? "stored" : "rejected_checksum", verifiedAt: new Date(), ...(previous ? { supersedesId: previous.id } : {}) })
     .where(and(eq(documents.id, doc.id)))
     .returning();
   if (!matches) {

@@ -6,6 +6,7 @@ import { conflict, notFound, unprocessable } from "@/server/api/errors";
 import type { Actor } from "@/lib/auth/authorize";
 import { nextSiteStatus, siteStatusLabels, type SiteStatus } from "@/lib/sites/site-status";
 import { todayAtSite } from "./site-today";
+import { assertSiteReadyToOpen } from "@/server/binder/readiness";
 
 export type SiteStatusChange = { before: Site; after: Site; eventId: string; effectiveOn: string };
 
@@ -37,6 +38,7 @@ export async function changeSiteStatus(
   if (last && on < last.effectiveOn) {
     throw unprocessable(`The date of the step cannot be before the previous step (${last.effectiveOn}).`, { effectiveOn: [`On or after ${last.effectiveOn}`] });
   }
+  if (to === "open") await assertSiteReadyToOpen(tx, { siteId, now });
   const [after] = await tx.update(sites).set({ status: to, updatedAt: now }).where(eq(sites.id, siteId)).returning();
   const [event] = await tx.insert(siteStatusEvents).values({ siteId, fromStatus: site.status, toStatus: to, effectiveOn: on, actorId: actor.userId }).returning({ id: siteStatusEvents.id });
   return { before: site, after: after!, eventId: event!.id, effectiveOn: on };

@@ -5,6 +5,7 @@ import { studyParams } from "@/lib/api/schemas";
 import { createUploadSchema, documentListQuery } from "@/lib/api/document-schemas";
 import { createUpload, maxUploadBytes } from "@/server/documents/uploads";
 import { documents } from "@/server/db/schema";
+import { checkBinderUpload } from "@/server/binder/binder-upload";
 
 export const GET = apiRoute(
   { permission: "documents.read", params: studyParams, query: documentListQuery, siteFiltered: true, scope: ({ params, query }) => ({ studyId: params.studyId, siteId: query.siteId }) },
@@ -36,9 +37,13 @@ export const POST = apiRoute(
     status: 201,
   },
   async ({ tx, input, actor, audit }) => {
-    const { siteId, purpose, ...request } = input.body;
-    const { document, uploadUrl } = await createUpload(tx, { studyId: input.params.studyId, siteId, purpose, request, uploaderId: actor.userId });
-    await audit({ action: "document.upload_requested", entityType: "document", entityId: document.id, after: { fileName: document.fileName, sha256: document.sha256, sizeBytes: document.sizeBytes, purpose } });
+    const { siteId, purpose: givenPurpose, binder: binderInput, ...request } = input.body;
+    const studyId = input.params.studyId;
+    const checked = binderInput ? await checkBinderUpload(tx, { studyId, siteId, binder: binderInput }) : null;
+    const purpose = checked?.purpose ?? givenPurpose;
+    const binder = checked ? { documentTypeId: checked.documentTypeId, personId: checked.personId, issuedOn: checked.issuedOn, expiresOn: checked.expiresOn, reviewState: checked.reviewState } : undefined;
+    const { document, uploadUrl } = await createUpload(tx, { studyId, siteId, purpose, request, uploaderId: actor.userId, binder });
+    await audit({ action: "document.upload_requested", entityType: "document", entityId: document.id, after: { fileName: document.fileName, sha256: document.sha256, sizeBytes: document.sizeBytes, purpose, ...binder } });
     return { document, uploadUrl };
   },
 );
