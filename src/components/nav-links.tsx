@@ -7,6 +7,7 @@ import {
   Building2,
   CalendarCheck,
   FileStack,
+  FileSignature,
   History,
   House,
   Landmark,
@@ -28,6 +29,7 @@ const icons: Record<NavIcon, LucideIcon> = {
   documents: FileStack,
   people: Users,
   audit: History,
+  acknowledgements: FileSignature,
 };
 
 export function NavLinks({ items }: { items: { key: string; label: string; href: string; icon: NavIcon }[] }) {

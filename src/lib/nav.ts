@@ -3,10 +3,12 @@ import type { Permission } from "@/lib/auth/roles";
 // The navigation: each section shows only to people who hold its permission somewhere in the study.
 // A capability adds its section here when its pages exist.
 export type NavItem = { key: string; label: string; segment: string; permission: Permission; icon: NavIcon };
-export type NavIcon = "home" | "protocol" | "sites" | "subjects" | "visits" | "budgets" | "payments" | "documents" | "people" | "audit";
+export type NavIcon = "home" | "protocol" | "sites" | "subjects" | "visits" | "budgets" | "payments" | "documents" | "people" | "audit" | "acknowledgements";
 
 export const navItems: NavItem[] = [
   { key: "home", label: "Home", segment: "", permission: "study.read", icon: "home" },
+  { key: "adoption", label: "Adoption", segment: "adoption", permission: "adoption.read", icon: "protocol" },
+  { key: "acknowledgements", label: "Acknowledgements", segment: "acknowledgements", permission: "acknowledgement.read", icon: "acknowledgements" },
   { key: "sites", label: "Sites", segment: "sites", permission: "sites.read", icon: "sites" },
   { key: "documents", label: "Documents", segment: "documents", permission: "documents.read", icon: "documents" },
   { key: "people", label: "People", segment: "people", permission: "people.read", icon: "people" },

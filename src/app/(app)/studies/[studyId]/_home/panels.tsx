@@ -6,6 +6,8 @@ import { accessibleSiteIds, type Actor } from "@/lib/auth/authorize";
 import type { Role } from "@/lib/auth/roles";
 import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
 import { SiteStatusChip } from "@/components/site-status-chip";
+import { MyAcknowledgementsPanel, OverdueAcknowledgementsPanel } from "../acknowledgements/_components/home-panels";
+import { PendingApprovalsPanel } from "../adoption/_components/home-panels";
 
 // Home panels by role. Each capability adds the panel that shows a person their pending work.
 export type HomePanel = {
@@ -78,6 +80,8 @@ async function MySites({ studyId, actor }: { studyId: string; actor: Actor }) {
 }
 
 export const homePanels: HomePanel[] = [
+  { key: "my-acknowledgements", title: "Protocol versions to acknowledge", roles: ["investigator"], Component: MyAcknowledgementsPanel },
+  { key: "pending-approvals", title: "Ethics approvals to record", roles: ["coordinator"], Component: PendingApprovalsPanel },
   { key: "sites-by-status", title: "Sites by status", roles: ["sponsor_admin"], Component: SitesByStatus },
   { key: "pending-invitations", title: "Invitations not yet accepted", roles: ["sponsor_admin"], Component: PendingInvitations },
   { key: "latest-audit", title: "Latest recorded changes", roles: ["auditor", "sponsor_admin"], Component: LatestAudit },
@@ -87,4 +91,5 @@ export const homePanels: HomePanel[] = [
     roles: ["investigator", "coordinator", "site_finance", "monitor", "protocol_writer", "medical_reviewer", "sponsor_finance"],
     Component: MySites,
   },
+  { key: "overdue-acknowledgements", title: "Protocol acknowledgements", roles: ["sponsor_admin", "medical_reviewer"], Component: OverdueAcknowledgementsPanel },
 ];
