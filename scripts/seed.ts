@@ -6,9 +6,10 @@ import * as schema from "../src/server/db/schema";
 import { seedFoundation } from "./seed/seed-foundation";
 import { seedProtocol } from "./seed/seed-protocol";
 import { seedSubjects } from "./seed/seed-subjects";
+import { seedBinder } from "./seed/seed-binder";
 import type { SeedContext } from "./seed/context";
 
-const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects];
+const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedBinder];
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error("DATABASE_URL is not set");
