@@ -1,6 +1,7 @@
 import { isSupportedCurrency } from "@/lib/money";
 import { localDate } from "./calendar";
 import { MoneySum } from "./money-sum";
+import { PaymentIndex } from "./payment-index";
 import { buildSiteLines, CycleBook, type SiteInput } from "./earned-lines";
 import { PriceBook } from "./pricing";
 import { computeProjection } from "./projection";
@@ -16,8 +17,6 @@ import type {
   UnmatchedPayment,
 } from "./result";
 import type { PaymentScheduleSnapshot, Subject } from "./snapshot";
-
-const VISIT_PREFIX = "visit:";
 
 function emptyTotals(currency: string): Totals {
   return {
@@ -58,7 +57,7 @@ function addTotals(into: Totals, from: Totals): void {
  * The payment schedule of one site or a whole study: a pure, deterministic function of its snapshot
  * (no clock, no I/O). Lines come out by site (input order), then trigger date, then key.
  *
- * Payments: every payment dated on or before asOf is applied to the line its key names, up to
+ * Payments: every payment dated on or before the site's asOf is applied to the line its key names, up to
  * the line's net; a partial payment leaves the line outstanding (or overdue) with `partiallyPaid`,
  * and anything paid beyond the net is `unapplied` (shown, not counted as paid), so that for every
  * line, site and currency: earned (gross + overhead) = paid + outstanding + held back.
@@ -99,31 +98,15 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
 
   const prices = new PriceBook();
   const cycles = new CycleBook();
+  const payments = new PaymentIndex(snapshot.payments ?? []);
   const lines: EarnedLine[] = [];
   const perSite = new Map<string, EarnedLine[]>();
   for (const input of siteInputs.values()) {
-    const siteLines = buildSiteLines(input, prices, cycles, pending);
+    const siteLines = buildSiteLines(input, prices, cycles, payments, pending);
     perSite.set(input.site.id, siteLines);
     for (const l of siteLines) lines.push(l);
   }
 
-  // Payments chained by line key (latest first), matched to lines as each site is summed. Visit
-  // lines are found by visit id rather than by their full key: the line's key is a freshly built
-  // string, and hashing 150,000 of them was the engine's largest single cost.
-  const payments = snapshot.payments ?? [];
-  const firstByKey = new Map<string, number>();
-  const firstByVisitId = new Map<string, number>();
-  const nextPayment = new Int32Array(payments.length).fill(-1);
-  const paymentState = new Uint8Array(payments.length); // 0 unmatched, 1 applied, 2 after asOf
-  for (let i = 0; i < payments.length; i++) {
-    const key = (payments[i] as (typeof payments)[number]).lineKey;
-    const isVisit = key.startsWith(VISIT_PREFIX);
-    const index = isVisit ? firstByVisitId : firstByKey;
-    const k = isVisit ? key.slice(VISIT_PREFIX.length) : key;
-    const first = index.get(k);
-    if (first !== undefined) nextPayment[i] = first;
-    index.set(k, i);
-  }
   const inRun = new Set(snapshot.inPaymentRun ?? []);
 
   const cycleSummaries: CycleSummary[] = [];
@@ -140,17 +123,6 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
     const ledgerByCycle = new Map<string, { label: string; withheld: MoneySum; released: MoneySum }>();
     let lastCycle: CycleAcc | null = null;
     for (const l of perSite.get(site.id) as EarnedLine[]) {
-      const first = payments.length === 0 ? undefined : l.kind === "visit" ? firstByVisitId.get(l.source.id) : firstByKey.get(l.key);
-      for (let i = first ?? -1; i >= 0; i = nextPayment[i] as number) {
-        const p = payments[i] as (typeof payments)[number];
-        if (p.paidOn > asOf) {
-          paymentState[i] = 2;
-          continue;
-        }
-        paymentState[i] = 1;
-        l.paidMinor = l.paidMinor === 0n ? p.amountMinor : l.paidMinor + p.amountMinor;
-        if (l.lastPaidOn === null || p.paidOn > l.lastPaidOn) l.lastPaidOn = p.paidOn;
-      }
       if (inRun.size > 0 && inRun.has(l.key)) l.inPaymentRun = true;
       if (l.paidMinor > l.netMinor) {
         l.unappliedMinor = l.paidMinor - l.netMinor;
@@ -275,12 +247,7 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
     ct.siteCount++;
   }
 
-  const unmatchedPayments: UnmatchedPayment[] = [];
-  for (let i = 0; i < payments.length; i++) {
-    if (paymentState[i] === 1) continue;
-    const p = payments[i] as (typeof payments)[number];
-    unmatchedPayments.push({ lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason: paymentState[i] === 2 ? "after_as_of" : "no_such_line" });
-  }
+  const unmatchedPayments: UnmatchedPayment[] = payments.unmatched().map(({ payment: p, reason }) => ({ lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason }));
 
   return {
     asOf: snapshot.asOf,

@@ -1,4 +1,5 @@
 import { cyclePeriodOf, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
+import type { PaymentIndex } from "./payment-index";
 import { PriceBook, pricePassThrough } from "./pricing";
 import type { Amounts, EarnedLine, LineKind, LineSource, PendingEvent } from "./result";
 import type { BudgetVersion, MilestoneFee, PassThroughInvoice, PaymentTrigger, RecordedVisit, ScreenFailureCap, Site, Subject } from "./snapshot";
@@ -88,7 +89,8 @@ function milestoneKey(siteId: string, m: Pick<MilestoneFee, "kind" | "n">): stri
 const ZERO: Amounts = { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n };
 
 /**
- * Every line a site has earned by its asOf date, unsettled (payments are applied afterwards).
+ * Every line a site has earned by its asOf date, with the payments made against it added up
+ * (clamping to the net and states come afterwards).
  * Rules beyond the computation rules, documented here:
  * - Visit fees are earned on the trigger of the budget version in force on the service date
  *   (service date, data-entry date or monitor-verified date; never before the service date).
@@ -104,7 +106,7 @@ const ZERO: Amounts = { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, ne
  * - Cycle and net days come from the version applied to the line; the cycle is the calendar
  *   month or quarter of the trigger date.
  */
-export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: CycleBook, pending: PendingEvent[]): EarnedLine[] {
+export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: CycleBook, payments: PaymentIndex, pending: PendingEvent[]): EarnedLine[] {
   const { site, asOf, versions } = input;
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
@@ -253,7 +255,9 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
     if (triggerDate < visit.serviceDate) triggerDate = visit.serviceDate;
     // Visits are the bulk of the lines: built directly, without an intermediate draft.
     const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
-    lines.push(newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, prices.price(v, fee, withholds(triggerDate)), cycles, false, null, null, null));
+    const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, prices.price(v, fee, withholds(triggerDate)), cycles, false, null, null, null);
+    payments.applyTo(line, visit.id, asOf);
+    lines.push(line);
   }
 
   // Pass-through invoices.
@@ -298,7 +302,9 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   }
 
   for (const d of drafts) {
-    lines.push(newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null));
+    const line = newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null);
+    payments.applyTo(line, null, asOf);
+    lines.push(line);
   }
   return sortLines(lines);
 }
