@@ -7,6 +7,7 @@ export type NavIcon = "home" | "protocol" | "sites" | "subjects" | "visits" | "b
 
 export const navItems: NavItem[] = [
   { key: "home", label: "Home", segment: "", permission: "study.read", icon: "home" },
+  { key: "protocol", label: "Protocol", segment: "protocol", permission: "protocol.read", icon: "protocol" },
   { key: "adoption", label: "Adoption", segment: "adoption", permission: "adoption.read", icon: "protocol" },
   { key: "acknowledgements", label: "Acknowledgements", segment: "acknowledgements", permission: "acknowledgement.read", icon: "acknowledgements" },
   { key: "sites", label: "Sites", segment: "sites", permission: "sites.read", icon: "sites" },

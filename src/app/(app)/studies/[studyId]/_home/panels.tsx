@@ -9,6 +9,7 @@ import { SiteStatusChip } from "@/components/site-status-chip";
 import { BinderReviewPanel, BinderToDoPanel } from "../documents/_components/binder-home-panels";
 import { MyAcknowledgementsPanel, OverdueAcknowledgementsPanel } from "../acknowledgements/_components/home-panels";
 import { PendingApprovalsPanel } from "../adoption/_components/home-panels";
+import { ProtocolWorkPanel } from "../protocol/_components/protocol-home-panel";
 
 // Home panels by role. Each capability adds the panel that shows a person their pending work.
 export type HomePanel = {
@@ -81,6 +82,7 @@ async function MySites({ studyId, actor }: { studyId: string; actor: Actor }) {
 }
 
 export const homePanels: HomePanel[] = [
+  { key: "protocol-work", title: "Protocol versions", roles: ["protocol_writer", "medical_reviewer"], Component: ProtocolWorkPanel },
   { key: "my-acknowledgements", title: "Protocol versions to acknowledge", roles: ["investigator"], Component: MyAcknowledgementsPanel },
   { key: "pending-approvals", title: "Ethics approvals to record", roles: ["coordinator"], Component: PendingApprovalsPanel },
   { key: "sites-by-status", title: "Sites by status", roles: ["sponsor_admin"], Component: SitesByStatus },
