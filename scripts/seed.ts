@@ -7,9 +7,10 @@ import { seedFoundation } from "./seed/seed-foundation";
 import { seedProtocol } from "./seed/seed-protocol";
 import { seedSubjects } from "./seed/seed-subjects";
 import { seedBinder } from "./seed/seed-binder";
+import { seedAcknowledgements } from "./seed/seed-acknowledgements";
 import type { SeedContext } from "./seed/context";
 
-const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedBinder];
+const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedAcknowledgements, seedBinder];
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error("DATABASE_URL is not set");
