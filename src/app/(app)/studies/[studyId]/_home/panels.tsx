@@ -6,6 +6,7 @@ import { accessibleSiteIds, type Actor } from "@/lib/auth/authorize";
 import type { Role } from "@/lib/auth/roles";
 import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
 import { SiteStatusChip } from "@/components/site-status-chip";
+import { SiteAmountsDue, StudyAmountsDue } from "../ledger/_components/home-panels";
 import { BinderReviewPanel, BinderToDoPanel } from "../documents/_components/binder-home-panels";
 import { MyAcknowledgementsPanel, OverdueAcknowledgementsPanel } from "../acknowledgements/_components/home-panels";
 import { PendingApprovalsPanel } from "../adoption/_components/home-panels";
@@ -97,4 +98,6 @@ export const homePanels: HomePanel[] = [
   { key: "overdue-acknowledgements", title: "Protocol acknowledgements", roles: ["sponsor_admin", "medical_reviewer"], Component: OverdueAcknowledgementsPanel },
   { key: "binder-review", title: "Documents awaiting review", roles: ["sponsor_admin"], Component: BinderReviewPanel },
   { key: "binder-todo", title: "Your site's documents to do", roles: ["coordinator"], Component: BinderToDoPanel },
+  { key: "site-amounts-due", title: "Due to your site", roles: ["site_finance"], Component: SiteAmountsDue },
+  { key: "study-amounts-due", title: "Due to sites, by currency", roles: ["sponsor_finance"], Component: StudyAmountsDue },
 ];
