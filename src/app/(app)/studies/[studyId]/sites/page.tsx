@@ -1,10 +1,15 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { db } from "@/server/db/client";
 import { getStudyContext } from "@/server/studies/study-context";
 import { listSitesForStudy } from "@/server/studies/queries";
-import { accessibleSiteIds, canSomewhere } from "@/lib/auth/authorize";
+import { enrolmentOverview } from "@/server/sites/enrolment-overview";
+import { accessibleSiteIds, can, canSomewhere } from "@/lib/auth/authorize";
+import { studyPath } from "@/lib/nav";
 import { SiteStatusChip } from "@/components/site-status-chip";
+import { EnrolmentChart } from "./_components/enrolment-chart";
+import { SiteForm } from "./_components/site-form";
 
 export const metadata: Metadata = { title: "Sites" };
 
@@ -13,9 +18,12 @@ export default async function SitesPage({ params }: { params: Promise<{ studyId:
   const { actor } = await getStudyContext(studyId);
   if (!canSomewhere(actor, "sites.read", studyId)) notFound();
   const rows = await listSitesForStudy(db, { studyId, siteIds: accessibleSiteIds(actor, "sites.read", studyId) });
+  const enrolment = canSomewhere(actor, "subjects.read", studyId) ? await enrolmentOverview(db, { studyId, siteIds: accessibleSiteIds(actor, "subjects.read", studyId) }) : null;
+  const canManage = can(actor, "sites.manage", { studyId });
   return (
-    <div className="space-y-4">
+    <div className="space-y-6">
       <h1>Sites</h1>
+      {canManage && <SiteForm studyId={studyId} />}
       <table className="table-dense" data-testid="sites-table">
         <thead>
           <tr>
@@ -31,7 +39,11 @@ export default async function SitesPage({ params }: { params: Promise<{ studyId:
         <tbody>
           {rows.map((s) => (
             <tr key={s.id}>
-              <td className="font-mono">{s.code}</td>
+              <td className="font-mono">
+                <Link className="underline" href={studyPath(studyId, `sites/${s.id}`)}>
+                  {s.code}
+                </Link>
+              </td>
               <td>{s.name}</td>
               <td>{s.country}</td>
               <td>{s.timeZone}</td>
@@ -44,6 +56,12 @@ export default async function SitesPage({ params }: { params: Promise<{ studyId:
           ))}
         </tbody>
       </table>
+      {enrolment && (
+        <section className="card space-y-2" aria-labelledby="enrolment-heading">
+          <h2 id="enrolment-heading">Enrolment overview</h2>
+          <EnrolmentChart rows={enrolment} />
+        </section>
+      )}
     </div>
   );
 }
