@@ -7,11 +7,14 @@ export type NavIcon = "home" | "protocol" | "sites" | "subjects" | "visits" | "b
 
 export const navItems: NavItem[] = [
   { key: "home", label: "Home", segment: "", permission: "study.read", icon: "home" },
+  { key: "protocol", label: "Protocol", segment: "protocol", permission: "protocol.read", icon: "protocol" },
   { key: "adoption", label: "Adoption", segment: "adoption", permission: "adoption.read", icon: "protocol" },
   { key: "acknowledgements", label: "Acknowledgements", segment: "acknowledgements", permission: "acknowledgement.read", icon: "acknowledgements" },
   { key: "sites", label: "Sites", segment: "sites", permission: "sites.read", icon: "sites" },
   { key: "subjects", label: "Subjects", segment: "subjects", permission: "subjects.read", icon: "subjects" },
   { key: "visits", label: "Visits", segment: "visits", permission: "deviations.read", icon: "visits" },
+  { key: "budgets", label: "Budgets", segment: "budgets", permission: "budget.read", icon: "budgets" },
+  { key: "ledger", label: "Payments", segment: "ledger", permission: "ledger.read", icon: "payments" },
   { key: "documents", label: "Documents", segment: "documents", permission: "documents.read", icon: "documents" },
   { key: "people", label: "People", segment: "people", permission: "people.read", icon: "people" },
   { key: "audit", label: "Audit", segment: "audit", permission: "audit.read", icon: "audit" },

@@ -6,9 +6,11 @@ import { accessibleSiteIds, type Actor } from "@/lib/auth/authorize";
 import type { Role } from "@/lib/auth/roles";
 import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
 import { SiteStatusChip } from "@/components/site-status-chip";
+import { SiteAmountsDue, StudyAmountsDue } from "../ledger/_components/home-panels";
 import { BinderReviewPanel, BinderToDoPanel } from "../documents/_components/binder-home-panels";
 import { MyAcknowledgementsPanel, OverdueAcknowledgementsPanel } from "../acknowledgements/_components/home-panels";
 import { PendingApprovalsPanel } from "../adoption/_components/home-panels";
+import { ProtocolWorkPanel } from "../protocol/_components/protocol-home-panel";
 
 import { EnrolmentBySitePanel, SiteWeekVisitsPanel } from "../visits/_components/home-panels";
 // Home panels by role. Each capability adds the panel that shows a person their pending work.
@@ -82,6 +84,7 @@ async function MySites({ studyId, actor }: { studyId: string; actor: Actor }) {
 }
 
 export const homePanels: HomePanel[] = [
+  { key: "protocol-work", title: "Protocol versions", roles: ["protocol_writer", "medical_reviewer"], Component: ProtocolWorkPanel },
   { key: "my-acknowledgements", title: "Protocol versions to acknowledge", roles: ["investigator"], Component: MyAcknowledgementsPanel },
   { key: "pending-approvals", title: "Ethics approvals to record", roles: ["coordinator"], Component: PendingApprovalsPanel },
   { key: "sites-by-status", title: "Sites by status", roles: ["sponsor_admin"], Component: SitesByStatus },
@@ -96,6 +99,8 @@ export const homePanels: HomePanel[] = [
   { key: "overdue-acknowledgements", title: "Protocol acknowledgements", roles: ["sponsor_admin", "medical_reviewer"], Component: OverdueAcknowledgementsPanel },
   { key: "binder-review", title: "Documents awaiting review", roles: ["sponsor_admin"], Component: BinderReviewPanel },
   { key: "binder-todo", title: "Your site's documents to do", roles: ["coordinator"], Component: BinderToDoPanel },
+  { key: "site-amounts-due", title: "Due to your site", roles: ["site_finance"], Component: SiteAmountsDue },
+  { key: "study-amounts-due", title: "Due to sites, by currency", roles: ["sponsor_finance"], Component: StudyAmountsDue },
   { key: "week-visits", title: "Visits due this week", roles: ["coordinator"], Component: SiteWeekVisitsPanel },
   { key: "enrolment-by-site", title: "Enrolment and overdue visits by site", roles: ["sponsor_admin"], Component: EnrolmentBySitePanel },
 ];
