@@ -179,13 +179,12 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
       if (overdue) c.overdue.add(l.outstandingMinor, out);
 
       if (l.holdbackMinor !== 0n) {
-        const h0 = h;
         let hb = ledgerByCycle.get(l.cycle.label);
         if (!hb) {
           hb = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
           ledgerByCycle.set(l.cycle.label, hb);
         }
-        if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h0);
+        if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h);
         else hb.released.add(-l.holdbackMinor);
       }
     }
