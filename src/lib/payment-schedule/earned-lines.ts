@@ -238,12 +238,12 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
       pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_budget_in_effect", detail: `No budget version in effect on ${visit.serviceDate}` });
       continue;
     }
-    const fee = v.visitFees[visit.visitCode];
-    if (fee === undefined) {
+    const priced = prices.visit(v, visit.visitCode, true);
+    if (priced === null) {
       pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_fee_for_visit_code", detail: `Budget version ${v.versionNumber} has no fee for visit ${visit.visitCode}` });
       continue;
     }
-    if (fee === 0n) continue;
+    if (priced.grossMinor === 0n) continue;
     let triggerDate: string | null | undefined = visit.serviceDate;
     if (v.trigger === "data_entered") triggerDate = visit.dataEnteredOn;
     else if (v.trigger === "monitor_verified") triggerDate = visit.verifiedOn;
@@ -255,7 +255,7 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
     if (triggerDate < visit.serviceDate) triggerDate = visit.serviceDate;
     // Visits are the bulk of the lines: built directly, without an intermediate draft.
     const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
-    const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, prices.price(v, fee, withholds(triggerDate)), cycles, false, null, null, null);
+    const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as Amounts), cycles, false, null, null, null);
     payments.applyTo(line, visit.id, asOf);
     lines.push(line);
   }

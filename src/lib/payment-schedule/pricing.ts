@@ -16,6 +16,28 @@ export class PriceBook {
   private readonly withHoldback = new Map<BudgetVersion, Map<bigint, Amounts>>();
   private readonly withoutHoldback = new Map<BudgetVersion, Map<bigint, Amounts>>();
 
+  private readonly visitsWithHoldback = new Map<BudgetVersion, Map<string, Amounts | null>>();
+
+  /** The priced visit fee of a version (null when the version has no fee for the code), cached by code. */
+  visit(version: BudgetVersion, visitCode: string, holdback: boolean): Amounts | null {
+    if (!holdback) {
+      const fee = version.visitFees[visitCode];
+      return fee === undefined ? null : this.price(version, fee, false);
+    }
+    let byCode = this.visitsWithHoldback.get(version);
+    if (!byCode) {
+      byCode = new Map();
+      this.visitsWithHoldback.set(version, byCode);
+    }
+    let amounts = byCode.get(visitCode);
+    if (amounts === undefined) {
+      const fee = version.visitFees[visitCode];
+      amounts = fee === undefined ? null : this.price(version, fee, true);
+      byCode.set(visitCode, amounts);
+    }
+    return amounts;
+  }
+
   price(version: BudgetVersion, feeMinor: bigint, holdback: boolean): Amounts {
     const book = holdback ? this.withHoldback : this.withoutHoldback;
     let byFee = book.get(version);
