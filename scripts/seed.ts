@@ -8,9 +8,10 @@ import { seedProtocol } from "./seed/seed-protocol";
 import { seedSubjects } from "./seed/seed-subjects";
 import { seedBinder } from "./seed/seed-binder";
 import { seedAcknowledgements } from "./seed/seed-acknowledgements";
+import { seedBudgets } from "./seed/seed-budgets";
 import type { SeedContext } from "./seed/context";
 
-const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedAcknowledgements, seedBinder];
+const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedAcknowledgements, seedBinder, seedBudgets];
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error("DATABASE_URL is not set");

@@ -5,7 +5,8 @@ import { paymentsRecorded, passThroughInvoices, siteStatusEvents, sites, studies
 import { subjects, visitRecords } from "@/server/db/schema/subjects";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { notFound } from "@/server/api/errors";
-import { listBudgetVersions, toEngineVersion } from "@/server/budgets/queries";
+import { listBudgetVersions } from "@/server/budgets/queries";
+import { buildSnapshot } from "@/lib/ledger/build-snapshot";
 import { listVersionsInForceAtSites } from "@/server/protocol/in-force";
 import { CalendarInputError, computeSubjectCalendar } from "@/lib/visits";
 import { localDate, type PaymentScheduleSnapshot, type ProjectionInput } from "@/lib/payment-schedule";
@@ -82,42 +83,7 @@ export async function loadScheduleSnapshot(
       .where(and(eq(paymentsRecorded.studyId, studyId), siteIds === "all" ? undefined : inSites(paymentsRecorded.siteId))),
   ]);
 
-  const stepOf = new Map<string, string>();
-  for (const s of steps) stepOf.set(`${s.siteId}:${s.status}`, s.on);
-
-  const snapshot: PaymentScheduleSnapshot = {
-    asOf,
-    sites: siteRows.map((s) => ({
-      id: s.id,
-      code: s.code,
-      currency: s.currency,
-      timeZone: s.timeZone,
-      activatedOn: stepOf.get(`${s.id}:open`) ?? null,
-      enrolmentClosedOn: stepOf.get(`${s.id}:enrolment_closed`) ?? null,
-      closedOutOn: stepOf.get(`${s.id}:closed_out`) ?? null,
-    })),
-    budgetVersions: versions.map((v) => toEngineVersion(v, v.items)),
-    passThroughInvoices: invoices.map((i) => ({ id: i.id, siteId: i.siteId, approvedOn: i.approvedOn, amountMinor: i.amountMinor, description: i.description })),
-    subjects: subjectRows.map((s) => ({
-      id: s.id,
-      siteId: s.siteId,
-      code: s.code,
-      screenedOn: s.screeningDate ?? s.consentDate,
-      screenFailedOn: s.status === "screen_failed" ? (s.endedOn ?? s.screeningDate ?? s.consentDate) : null,
-      enrolledOn: s.enrolmentDate,
-      implantedOn: s.implantDate,
-    })),
-    visits: visitRows.map((v) => ({
-      id: v.id,
-      subjectId: v.subjectId,
-      visitCode: v.visitCode,
-      serviceDate: v.actualDate!,
-      status: v.outcome,
-      dataEnteredOn: v.dataEnteredOn,
-      verifiedOn: v.verifiedOn,
-    })),
-    payments,
-  };
+  const snapshot: PaymentScheduleSnapshot = buildSnapshot({ asOf, sites: siteRows, siteSteps: steps, versions, invoices, subjects: subjectRows, visits: visitRows, payments });
 
   if (projection) snapshot.projection = await projectionInput(tx, { siteRows, subjectRows, visitRows, asOf });
   return { study, sites: siteRows, snapshot };
