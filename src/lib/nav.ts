@@ -15,6 +15,8 @@ export const navItems: NavItem[] = [
   { key: "visits", label: "Visits", segment: "visits", permission: "deviations.read", icon: "visits" },
   { key: "budgets", label: "Budgets", segment: "budgets", permission: "budget.read", icon: "budgets" },
   { key: "ledger", label: "Payments", segment: "ledger", permission: "ledger.read", icon: "payments" },
+  { key: "payment-runs", label: "Payment runs", segment: "payment-runs", permission: "payments.read", icon: "payments" },
+  { key: "reconciliation", label: "Reconciliation", segment: "reconciliation", permission: "payments.read", icon: "payments" },
   { key: "documents", label: "Documents", segment: "documents", permission: "documents.read", icon: "documents" },
   { key: "people", label: "People", segment: "people", permission: "people.read", icon: "people" },
   { key: "audit", label: "Audit", segment: "audit", permission: "audit.read", icon: "audit" },

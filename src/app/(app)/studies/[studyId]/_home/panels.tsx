@@ -7,9 +7,10 @@ import type { Role } from "@/lib/auth/roles";
 import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
 import { SiteStatusChip } from "@/components/site-status-chip";
 import { SiteAmountsDue, StudyAmountsDue } from "../ledger/_components/home-panels";
-import { BinderReviewPanel, BinderToDoPanel } from "../documents/_components/binder-home-panels";
+import { FailedTransfersPanel, OpenPaymentQueriesPanel, PaymentsToConfirmPanel, RunsAwaitingApprovalPanel } from "../payment-runs/_components/home-panels";
 import { MyAcknowledgementsPanel, OverdueAcknowledgementsPanel } from "../acknowledgements/_components/home-panels";
 import { PendingApprovalsPanel } from "../adoption/_components/home-panels";
+import { BinderReviewPanel, BinderToDoPanel } from "../documents/_components/binder-home-panels";
 import { ProtocolWorkPanel } from "../protocol/_components/protocol-home-panel";
 
 import { EnrolmentBySitePanel, SiteWeekVisitsPanel } from "../visits/_components/home-panels";
@@ -96,11 +97,15 @@ export const homePanels: HomePanel[] = [
     roles: ["investigator", "coordinator", "site_finance", "monitor", "protocol_writer", "medical_reviewer", "sponsor_finance"],
     Component: MySites,
   },
-  { key: "overdue-acknowledgements", title: "Protocol acknowledgements", roles: ["sponsor_admin", "medical_reviewer"], Component: OverdueAcknowledgementsPanel },
   { key: "binder-review", title: "Documents awaiting review", roles: ["sponsor_admin"], Component: BinderReviewPanel },
   { key: "binder-todo", title: "Your site's documents to do", roles: ["coordinator"], Component: BinderToDoPanel },
-  { key: "site-amounts-due", title: "Due to your site", roles: ["site_finance"], Component: SiteAmountsDue },
-  { key: "study-amounts-due", title: "Due to sites, by currency", roles: ["sponsor_finance"], Component: StudyAmountsDue },
+  { key: "overdue-acknowledgements", title: "Protocol acknowledgements", roles: ["sponsor_admin", "medical_reviewer"], Component: OverdueAcknowledgementsPanel },
   { key: "week-visits", title: "Visits due this week", roles: ["coordinator"], Component: SiteWeekVisitsPanel },
   { key: "enrolment-by-site", title: "Enrolment and overdue visits by site", roles: ["sponsor_admin"], Component: EnrolmentBySitePanel },
+  { key: "site-amounts-due", title: "Due to your site", roles: ["site_finance"], Component: SiteAmountsDue },
+  { key: "study-amounts-due", title: "Due to sites, by currency", roles: ["sponsor_finance"], Component: StudyAmountsDue },
+  { key: "runs-awaiting-approval", title: "Payment runs awaiting approval", roles: ["sponsor_finance"], Component: RunsAwaitingApprovalPanel },
+  { key: "failed-transfers", title: "Failed transfers", roles: ["sponsor_finance"], Component: FailedTransfersPanel },
+  { key: "payments-to-confirm", title: "Payments to confirm", roles: ["site_finance"], Component: PaymentsToConfirmPanel },
+  { key: "open-payment-queries", title: "Open payment queries", roles: ["site_finance", "sponsor_finance"], Component: OpenPaymentQueriesPanel },
 ];
