@@ -9,9 +9,10 @@ import { seedSubjects } from "./seed/seed-subjects";
 import { seedBinder } from "./seed/seed-binder";
 import { seedAcknowledgements } from "./seed/seed-acknowledgements";
 import { seedBudgets } from "./seed/seed-budgets";
+import { seedPayments } from "./seed/seed-payments";
 import type { SeedContext } from "./seed/context";
 
-const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedAcknowledgements, seedBinder, seedBudgets];
+const steps: ((ctx: SeedContext) => Promise<void>)[] = [seedFoundation, seedProtocol, seedSubjects, seedAcknowledgements, seedBinder, seedBudgets, seedPayments];
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error("DATABASE_URL is not set");
