@@ -80,7 +80,7 @@ const scheduleV1: VisitSchedule = [
 ];
 const scheduleV2: VisitSchedule = [...scheduleV1.map((v) => (v.code === "M6" ? { ...v, windowBefore: 21, windowAfter: 21 } : v)), sv("M21", "implant", 639, 30)].sort((a, b) => a.dayOffset - b.dayOffset);
 
-process.env.NODE_ENV ??= "production";
+(process.env as Record<string, string | undefined>).NODE_ENV ??= "production";
 const pool = new Pool({ connectionString: baseUrl, max: 4 });
 const db = drizzle(pool, { schema, casing: "snake_case" });
 const tag = `${process.pid}${Date.now() % 100000}`;
