@@ -2,7 +2,7 @@
 // payments and upcoming calendar visits. Same options → same snapshot (seeded PRNG, no clock).
 import { addDays } from "../../src/lib/payment-schedule/calendar";
 import { priceFee } from "../../src/lib/payment-schedule/pricing";
-import type { BudgetVersion, PaymentScheduleSnapshot, RecordedVisit, Subject } from "../../src/lib/payment-schedule/snapshot";
+import type { BudgetVersion, PassThroughInvoice, Payment, PaymentScheduleSnapshot, RecordedVisit, Site, Subject } from "../../src/lib/payment-schedule/snapshot";
 
 export interface GenerateStudyOptions {
   sites?: number;
@@ -44,18 +44,13 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
   const { sites: siteCount = 200, subjects: subjectCount = 10_000, visits: visitTarget = 150_000, seed = 42, asOf = "2026-12-01" } = options;
   const rnd = prng(seed);
   const int = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
-  const snapshot = {
-    asOf,
-    sites: [],
-    budgetVersions: [],
-    passThroughInvoices: [],
-    subjects: [],
-    visits: [],
-    payments: [],
-    inPaymentRun: [],
-    projection: { scheduledVisits: [], newSubjectVisitPlan: VISITS.slice(0, 8).map(([visitCode, dayOffset]) => ({ visitCode, dayOffset })), horizonMonths: 12 },
-  } satisfies PaymentScheduleSnapshot & { projection: { scheduledVisits: unknown[] } };
-  const payments = snapshot.payments as { lineKey: string; amountMinor: bigint; paidOn: string }[];
+  const sites: Site[] = [];
+  const budgetVersions: BudgetVersion[] = [];
+  const passThroughInvoices: PassThroughInvoice[] = [];
+  const subjects: Subject[] = [];
+  const visits: RecordedVisit[] = [];
+  const payments: Payment[] = [];
+  const scheduledVisits: { subjectId: string; visitCode: string; targetDate: string }[] = [];
 
   const versionsBySite = new Map<string, BudgetVersion[]>();
   for (let i = 0; i < siteCount; i++) {
@@ -64,7 +59,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
     const id = `site-${String(i + 1).padStart(3, "0")}`;
     const activatedOn = addDays("2019-06-01", int(0, 540));
     const closedOutOn = i % 20 === 19 ? addDays(asOf, -int(10, 120)) : null;
-    snapshot.sites.push({ id, code: `S${String(i + 1).padStart(3, "0")}`, currency, timeZone, activatedOn, enrolmentClosedOn: closedOutOn, closedOutOn } as never);
+    sites.push({ id, code: `S${String(i + 1).padStart(3, "0")}`, currency, timeZone, activatedOn, enrolmentClosedOn: closedOutOn, closedOutOn });
     const fees: Record<string, bigint> = {};
     for (const [code] of VISITS) fees[code] = BigInt(int(150, 900)) * unit;
     const common = {
@@ -87,9 +82,9 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
     };
     const v1: BudgetVersion = { ...common, id: `${id}-b1`, versionNumber: 1, effectiveFrom: addDays(activatedOn, -30), visitFees: fees };
     const v2: BudgetVersion = { ...common, id: `${id}-b2`, versionNumber: 2, effectiveFrom: addDays(activatedOn, int(300, 700)), visitFees: { ...fees, M12: (fees.M12 as bigint) + 100n * unit } };
-    snapshot.budgetVersions.push(v1 as never, v2 as never);
+    budgetVersions.push(v1, v2);
     versionsBySite.set(id, [v1, v2]);
-    snapshot.passThroughInvoices.push({ id: `${id}-irb`, siteId: id, approvedOn: addDays(activatedOn, -10), amountMinor: 1200n * unit, description: "Ethics committee fee" } as never);
+    passThroughInvoices.push({ id: `${id}-irb`, siteId: id, approvedOn: addDays(activatedOn, -10), amountMinor: 1200n * unit, description: "Ethics committee fee" });
   }
 
   // Enrolled subjects carry the visits; the rest are screen failures.
@@ -98,7 +93,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
   // Each enrolled subject has its calendar visits up to asOf, until the study holds visitTarget visits.
   let visitId = 0;
   for (let j = 0; j < subjectCount; j++) {
-    const site = snapshot.sites[j % siteCount] as unknown as { id: string; activatedOn: string; closedOutOn: string | null };
+    const site = sites[j % siteCount] as Site & { activatedOn: string };
     const id = `subj-${String(j + 1).padStart(5, "0")}`;
     const screenedOn = addDays(site.activatedOn, int(5, 600));
     const enrolled = j < enrolledCount;
@@ -108,14 +103,14 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
       subject.enrolledOn = addDays(screenedOn, int(1, 20));
       subject.implantedOn = addDays(subject.enrolledOn, 14);
     }
-    (snapshot.subjects as Subject[]).push(subject);
+    subjects.push(subject);
     if (!enrolled) continue;
     const versions = versionsBySite.get(site.id) as BudgetVersion[];
     for (let k = 0; k < VISITS.length; k++) {
       const [code, offset] = VISITS[k] as [string, number];
       const target = addDays(subject.enrolledOn as string, offset);
       if (visitId >= visitTarget || target > asOf) {
-        if (target > asOf) snapshot.projection.scheduledVisits.push({ subjectId: id, visitCode: code, targetDate: target } as never);
+        if (target > asOf) scheduledVisits.push({ subjectId: id, visitCode: code, targetDate: target });
         continue;
       }
       const serviceDate = addDays(target, int(-3, 3));
@@ -125,7 +120,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
         visit.dataEnteredOn = addDays(serviceDate, int(0, 14));
         if (rnd() < 0.85) visit.verifiedOn = addDays(visit.dataEnteredOn, int(5, 60));
       }
-      (snapshot.visits as RecordedVisit[]).push(visit);
+      visits.push(visit);
       // Pay most old visits at their net, as the sponsor would have.
       if (done && visit.verifiedOn && visit.verifiedOn < addDays(asOf, -120) && rnd() < 0.9) {
         const v = versions[1]!.effectiveFrom <= serviceDate ? versions[1]! : versions[0]!;
@@ -134,5 +129,15 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
       }
     }
   }
-  return snapshot;
+  return {
+    asOf,
+    sites,
+    budgetVersions,
+    passThroughInvoices,
+    subjects,
+    visits,
+    payments,
+    inPaymentRun: [],
+    projection: { scheduledVisits, newSubjectVisitPlan: VISITS.slice(0, 8).map(([visitCode, dayOffset]) => ({ visitCode, dayOffset })), horizonMonths: 12 },
+  };
 }
