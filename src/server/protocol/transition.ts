@@ -90,7 +90,7 @@ export async function transitionProtocolVersion(
       .returning();
     for (const s of superseded)
       await audit({ action: "protocol_version.supersede", entityType: "protocol_version", entityId: s.id, before: { state: "released", versionLabel: s.versionLabel }, after: { state: "superseded", versionLabel: s.versionLabel, supersededBy: updated!.versionLabel } });
-    await onProtocolVersionReleased(tx, { versionId });
+    await onProtocolVersionReleased(tx, { versionId, actor });
   }
   return updated!;
 }

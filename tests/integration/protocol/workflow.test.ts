@@ -2,7 +2,7 @@
 // revision, and every workflow step by role (author ≠ approver/releaser), each in the audit trail.
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
-import { auditEvents, memberships, protocolVersions, users } from "@/server/db/schema";
+import { acknowledgementRequests, auditEvents, memberships, protocolVersions, users } from "@/server/db/schema";
 import canonicalize from "canonicalize";
 import { hashProtocolContent } from "@/lib/protocol/content-hash";
 import { callRoute } from "../../support/api";
@@ -197,5 +197,8 @@ describe("a new version, end to end", () => {
     ]);
     const sup = await db.select().from(auditEvents).where(and(eq(auditEvents.entityId, releasedId), eq(auditEvents.action, "protocol_version.supersede")));
     expect(sup).toHaveLength(1);
+    // The release hook asked the investigators of the open sites to acknowledge, in the same transaction.
+    const asked = await db.select({ userId: acknowledgementRequests.userId }).from(acknowledgementRequests).where(eq(acknowledgementRequests.versionId, draftId));
+    expect(asked.map((a) => a.userId).sort()).toEqual([fy.userByRole.investigator.id, fy.siteBPeople.investigator.id].sort());
   });
 });
