@@ -1,0 +1,68 @@
+import type { Page } from "playwright-core";
+import { appUrl } from "../support";
+
+/** Page object for Acknowledgements: the investigator's task, the signing form and the compliance matrix. */
+export class AcknowledgementPage {
+  constructor(private readonly page: Page) {}
+
+  /** Demo people hold roles in one study: the start page leads straight to it. */
+  async openStudyHome(studyCode: string) {
+    await this.page.goto(`${appUrl()}/`);
+    const link = this.page.getByRole("link", { name: studyCode, exact: true });
+    if (await link.count()) await link.first().click();
+    await this.page.waitForSelector('[data-testid="home-panels"]');
+  }
+
+  studyId(): string {
+    const m = /\/studies\/([^/?#]+)/.exec(this.page.url());
+    if (!m) throw new Error(`Not on a study page: ${this.page.url()}`);
+    return m[1]!;
+  }
+
+  /** JSON API call with the page's session cookie. */
+  async api<T>(method: string, path: string, body?: unknown): Promise<{ status: number; json: T }> {
+    return this.page.evaluate(
+      async ({ method, path, body }) => {
+        const res = await fetch(path, { method, headers: body === undefined ? {} : { "content-type": "application/json" }, body: body === undefined ? undefined : JSON.stringify(body) });
+        const text = await res.text();
+        return { status: res.status, json: text ? JSON.parse(text) : null };
+      },
+      { method, path, body },
+    );
+  }
+
+  homeTask(versionLabel: string) {
+    return this.page.locator('[data-testid="home-my-acknowledgements"] a', { hasText: `protocol version ${versionLabel}` });
+  }
+
+  async openRedline() {
+    await this.page.locator('[data-testid="open-redline"]').click();
+    await this.page.waitForURL(/\/protocol\/compare\?from=/);
+  }
+
+  async sign(password: string) {
+    const agree = this.page.locator('[data-testid="sign-agree"]');
+    if (!(await agree.isChecked())) await agree.check();
+    await this.page.locator('[data-testid="sign-password"]').fill(password);
+    await this.page.locator('[data-testid="sign-submit"]').click();
+  }
+
+  signError() {
+    return this.page.locator('[data-testid="sign-error"]');
+  }
+
+  signatureRecord() {
+    return this.page.locator('[data-testid="signature-record"]');
+  }
+
+  async openMatrix(versionLabel: string) {
+    await this.page.goto(`${appUrl()}/studies/${this.studyId()}/acknowledgements`);
+    await this.page.waitForSelector('[data-testid="compliance-matrix"]');
+    await this.page.getByLabel("Version").selectOption({ label: versionLabel });
+    await this.page.waitForSelector('[data-testid="matrix-table"]');
+  }
+
+  matrixRow(name: string) {
+    return this.page.locator('[data-testid="matrix-table"] tr', { hasText: name });
+  }
+}
