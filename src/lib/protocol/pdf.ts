@@ -362,13 +362,13 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
   const parts = new Set(input.parts ?? ["clean", "tracked", "summary"]);
   // Part 1: clean copy.
   if (parts.has("clean")) {
-  partTitle(pdf, title, `${subtitle} · Clean copy`);
-  const numbers = blockSectionNumbers(doc);
-  topLevelBlocks(doc).forEach((block, i) => writeBlock(pdf, block, numbers[i] ?? null));
-  ensureSpace(pdf, 60);
-  pdf.moveDown(0.6).font("bold").fontSize(13).fillColor(INK).text("Schedule of visits", pdf.page.margins.left, pdf.y);
-  pdf.moveDown(0.3);
-  writeTable(pdf, visitRows(input.visitSchedule), { header: true, size: 8.5, widths: visitWidths(contentWidth(pdf)) });
+    partTitle(pdf, title, `${subtitle} · Clean copy`);
+    const numbers = blockSectionNumbers(doc);
+    topLevelBlocks(doc).forEach((block, i) => writeBlock(pdf, block, numbers[i] ?? null));
+    ensureSpace(pdf, 60);
+    pdf.moveDown(0.6).font("bold").fontSize(13).fillColor(INK).text("Schedule of visits", pdf.page.margins.left, pdf.y);
+    pdf.moveDown(0.3);
+    writeTable(pdf, visitRows(input.visitSchedule), { header: true, size: 8.5, widths: visitWidths(contentWidth(pdf)) });
   }
 
   // Part 2: tracked changes against the parent.
@@ -410,16 +410,16 @@ export function buildEthicsPackagePdf(input: EthicsPackageInput): Promise<Buffer
 
   // Part 3: summary of changes.
   if (parts.has("summary")) {
-  partTitle(pdf, `${title}: summary of changes`, subtitle);
-  if (!input.summaryOfChanges.length) pdf.font("regular").fontSize(10).text("No changes recorded.");
-  else {
-    const total = contentWidth(pdf);
-    writeTable(pdf, [["Section", "Before", "After", "Rationale"], ...input.summaryOfChanges.map((r) => [r.section, r.before, r.after, r.rationale])], {
-      header: true,
-      size: 8.5,
-      widths: [0.18, 0.28, 0.28, 0.26].map((f) => f * total),
-    });
-  }
+    partTitle(pdf, `${title}: summary of changes`, subtitle);
+    if (!input.summaryOfChanges.length) pdf.font("regular").fontSize(10).text("No changes recorded.");
+    else {
+      const total = contentWidth(pdf);
+      writeTable(pdf, [["Section", "Before", "After", "Rationale"], ...input.summaryOfChanges.map((r) => [r.section, r.before, r.after, r.rationale])], {
+        header: true,
+        size: 8.5,
+        widths: [0.18, 0.28, 0.28, 0.26].map((f) => f * total),
+      });
+    }
   }
   if (!input.parent && parts.size === 1 && parts.has("tracked")) partTitle(pdf, `${title}: tracked changes`, "The original protocol has no earlier version to compare with.");
 
