@@ -62,7 +62,7 @@ export async function loadScheduleSnapshot(
         implant_date::text as "implantDate", ended_on::text as "endedOn" from ${subjects} where study_id = ${studyId} ${siteIds === "all" ? sql`` : sql`and site_id in ${sqlList(ids)}`}`),
     ),
     rowsOf<VisitRow>(
-      tx.execute(sql`select vr.id, vr.subject_id as "subjectId", vr.visit_code as "visitCode", vr.version_id as "versionId", vr.outcome, vr.actual_date::text as "actualDate",
+      tx.execute(sql`select vr.id, vr.subject_id as "subjectId", vr.visit_code as "visitCode", ${projection ? sql`vr.version_id as "versionId",` : sql``} vr.outcome, vr.actual_date::text as "actualDate",
         vr.data_entered_on::text as "dataEnteredOn", vr.verified_on::text as "verifiedOn"
         from ${visitRecords} vr join ${subjects} su on su.id = vr.subject_id
         where su.study_id = ${studyId} and vr.actual_date is not null ${siteIds === "all" ? sql`` : sql`and su.site_id in ${sqlList(ids)}`}`),

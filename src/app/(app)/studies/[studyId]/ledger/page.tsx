@@ -134,7 +134,7 @@ export default async function LedgerPage({ params, searchParams }: { params: Pro
 
       <section className="space-y-2" aria-labelledby="ledger-heading">
         <h2 id="ledger-heading">{selected ? <>Ledger — <span className="font-mono">{selected.code}</span> {selected.name}</> : "Site ledger"}</h2>
-        {selected ? <SiteLedger siteId={selected.siteId} /> : <p>Choose a site in the table above to see its ledger.</p>}
+        {selected ? <SiteLedger studyId={studyId} siteId={selected.siteId} /> : <p>Choose a site in the table above to see its ledger.</p>}
       </section>
     </div>
   );

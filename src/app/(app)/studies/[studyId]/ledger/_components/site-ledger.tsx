@@ -2,6 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import { ChevronDown, ChevronRight } from "lucide-react";
+import Link from "next/link";
 import { Fragment, useMemo, useState } from "react";
 import { apiFetch } from "@/lib/api/client";
 import { describeLine, lineKindLabels, lineStateLabels } from "@/lib/ledger/line-labels";
@@ -37,7 +38,7 @@ function sum(lines: Line[], f: "grossMinor" | "overheadMinor" | "holdbackMinor" 
 }
 
 /** A site's ledger: every earned line, filterable by cycle, kind, state and text; grouped by cycle or flat. */
-export function SiteLedger({ siteId }: { siteId: string }) {
+export function SiteLedger({ studyId, siteId }: { studyId: string; siteId: string }) {
   const { data, error, isLoading } = useQuery({ queryKey: ["ledger", siteId], queryFn: () => apiFetch<Ledger>(`/api/v1/sites/${siteId}/ledger`) });
   const [cycle, setCycle] = useState("");
   const [kind, setKind] = useState("");
@@ -200,6 +201,15 @@ export function SiteLedger({ siteId }: { siteId: string }) {
                             <dt className="text-muted">Source event</dt>
                             <dd>
                               {l.source.event.replace("_", " ")} · record <span className="font-mono">{l.source.id}</span>
+                              {l.source.subjectId ? (
+                                <>
+                                  {" "}
+                                  ·{" "}
+                                  <Link className="underline" href={`/studies/${studyId}/subjects/${l.source.subjectId}`}>
+                                    open subject {l.source.subjectCode}
+                                  </Link>
+                                </>
+                              ) : null}
                             </dd>
                             <dt className="text-muted">Line key</dt>
                             <dd className="font-mono">{l.key}</dd>
