@@ -15,7 +15,16 @@ const LEASE_SECONDS = 60;
  * it is marked sent right after the SMTP server accepts it. A crash between acceptance and the
  * mark can at worst resend with the same Message-ID (receivers de-duplicate on it).
  */
-export async function deliverOutbox({ batchSize = 20, transport }: { batchSize?: number; transport?: Transporter } = {}) {
+export async function deliverOutbox({
+  batchSize = 20,
+  transport,
+  dedupeKeyPrefix,
+}: {
+  batchSize?: number;
+  transport?: Transporter;
+  /** Only messages whose key starts with this (flush one feature's mail, e.g. in a test). */
+  dedupeKeyPrefix?: string;
+} = {}) {
   const sender = transport ?? mailTransport();
   let sent = 0;
   let failed = 0;
@@ -25,6 +34,7 @@ export async function deliverOutbox({ batchSize = 20, transport }: { batchSize?:
       where id in (
         select id from outbox_messages
         where sent_at is null and next_attempt_at <= now()
+          and (${dedupeKeyPrefix ?? null}::text is null or starts_with(dedupe_key, ${dedupeKeyPrefix ?? null}::text))
         order by created_at
         limit ${batchSize}
         for update skip locked

@@ -33,8 +33,9 @@ describe("transactional outbox", () => {
     });
     expect(await db.select().from(outboxMessages).where(eq(outboxMessages.dedupeKey, `${key}:rolled-back`))).toHaveLength(0);
 
-    // Server down: the message stays queued, with the error noted.
-    await deliverOutbox({ transport });
+    // Server down: the message stays queued, with the error noted. (Only this test's messages are
+    // flushed: other tests share the outbox.)
+    await deliverOutbox({ transport, dedupeKeyPrefix: key });
     let [row] = await db.select().from(outboxMessages).where(eq(outboxMessages.dedupeKey, key));
     expect(row?.sentAt).toBeNull();
     expect(row?.lastError).toBeTruthy();
@@ -42,8 +43,8 @@ describe("transactional outbox", () => {
     // Server back: due now, delivered once; further passes send nothing more.
     fake = await startSmtpFake({ port: smtpPort, webPort, dataDir: `/tmp/cairn-outbox-test-${smtpPort}` });
     await db.execute(sql`update outbox_messages set next_attempt_at = now() where dedupe_key = ${key}`);
-    await deliverOutbox({ transport });
-    await deliverOutbox({ transport });
+    await deliverOutbox({ transport, dedupeKeyPrefix: key });
+    await deliverOutbox({ transport, dedupeKeyPrefix: key });
     [row] = await db.select().from(outboxMessages).where(eq(outboxMessages.dedupeKey, key));
     expect(row?.sentAt).not.toBeNull();
 
