@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { currencyCodeSchema } from "@/lib/money";
+import { currencyCodeSchema, moneyAmountSchema } from "@/lib/money";
 import { parseRate } from "@/lib/ledger/convert";
 
 // Query and body schemas of the budget and ledger routes, shared with the client.
@@ -26,3 +26,12 @@ export const exchangeRateInput = z.object({
   rateDate: isoDate,
   source: z.string().trim().max(200).default(""),
 });
+
+/** An approved pass-through invoice, its amount typed in major units of the site's currency. */
+export const passThroughInvoiceInput = (currency: string) =>
+  z.object({
+    documentId: z.uuid({ message: "Choose the uploaded invoice" }),
+    description: z.string().trim().min(3, "Say what the invoice is for").max(200),
+    amount: moneyAmountSchema(currency, { min: 1n }),
+    approvedOn: isoDate,
+  });

@@ -10,6 +10,7 @@ import * as summaryRoute from "@/app/api/v1/studies/[studyId]/ledger/summary/rou
 import * as projectionRoute from "@/app/api/v1/studies/[studyId]/ledger/projection/route";
 import * as ratesRoute from "@/app/api/v1/studies/[studyId]/exchange-rates/route";
 import * as listRoute from "@/app/api/v1/studies/[studyId]/budgets/route";
+import * as invoicesRoute from "@/app/api/v1/sites/[siteId]/pass-through-invoices/route";
 import { paymentsRecorded, protocolVersions, siteStatusEvents, siteVersionApprovals } from "@/server/db/schema";
 import { subjects, visitRecords } from "@/server/db/schema/subjects";
 import { callRoute } from "../../support/api";
@@ -188,6 +189,19 @@ describe("the site ledger", () => {
     expect((await ledger("2025-12-31", other)).status).toBe(404);
     const st = await callRoute(statementRoute.GET, { params: { siteId: fx.siteA.id }, query: { format: "csv" }, userId: other });
     expect(st.status).toBe(404);
+  });
+});
+
+describe("pass-through invoices", () => {
+  it("reimburses an approved invoice at cost, without overhead or holdback", async () => {
+    const bad = await callRoute(invoicesRoute.POST, { method: "POST", params: { siteId: fx.siteA.id }, body: { documentId: fx.docB.id, description: "Ethics fee", amount: "1,200.00", approvedOn: "2025-05-20" }, userId: sponsorFinance });
+    // Site B's document cannot be site A's invoice.
+    expect(bad.status).toBe(422);
+    const res = await callRoute(invoicesRoute.POST, { method: "POST", params: { siteId: fx.siteA.id }, body: { documentId: fx.docA.id, description: "Ethics fee", amount: "1,200.00", approvedOn: "2025-05-20" }, userId: sponsorFinance });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    const l = line((await ledger("2025-12-31")).json, `pass-through:${res.json.invoice.id}`);
+    // EUR 1,200.00 at cost (common practice): gross = net = 120000 cents.
+    expect([l.grossMinor, l.overheadMinor, l.holdbackMinor, l.netMinor]).toEqual(["120000", "0", "0", "120000"]);
   });
 });
 

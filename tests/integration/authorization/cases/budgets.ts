@@ -40,6 +40,15 @@ export const cases: RouteCase[] = [
     body: () => ({ ...budgetBody, startupFee: "5,500.00" }),
     allow: ["sponsor_finance"],
   },
+  { name: "list pass-through invoices", route: "sites/[siteId]/pass-through-invoices", method: "GET", params: (fx) => ({ siteId: fx.siteA.id }), allow: [...readers] },
+  {
+    name: "approve a pass-through invoice",
+    route: "sites/[siteId]/pass-through-invoices",
+    method: "POST",
+    params: (fx) => ({ siteId: fx.siteA.id }),
+    body: (fx) => ({ documentId: fx.docA.id, description: "Ethics committee fee", amount: "1,200.00", approvedOn: "2025-02-10" }),
+    allow: ["sponsor_finance"],
+  },
   { name: "a site's ledger", route: "sites/[siteId]/ledger", method: "GET", params: (fx) => ({ siteId: fx.siteA.id }), allow: [...readers] },
   { name: "a site's CSV statement", route: "sites/[siteId]/statement", method: "GET", params: (fx) => ({ siteId: fx.siteA.id }), query: () => ({ format: "csv" }), allow: [...readers] },
   {
