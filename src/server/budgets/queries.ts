@@ -2,7 +2,6 @@ import "server-only";
 import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { budgetItems, budgetVersions, siteBudgets, sites, type BudgetItemRow, type BudgetVersionRow } from "@/server/db/schema";
-import { toEngineVersion } from "./to-engine";
 
 export type BudgetVersionWithItems = BudgetVersionRow & { items: BudgetItemRow[] };
 
@@ -53,4 +52,3 @@ export async function listStudyBudgets(tx: Tx, { studyId, siteIds }: { studyId: 
   });
 }
 
-export { toEngineVersion };

@@ -1,2 +1,0 @@
-import "server-only";
-export { toEngineVersion } from "@/lib/ledger/build-snapshot";
