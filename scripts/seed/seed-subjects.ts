@@ -157,8 +157,8 @@ export async function seedSubjects({ db, log }: SeedContext) {
           else if (r < 0.08) actual = target - visit.windowBefore - int(1, 4); // early
         }
         if (actual > stopDay || actual >= today) continue;
-        const windowClosedLongAgo = target + visit.windowAfter < today - 20;
-        if (!windowClosedLongAgo && r > 0.8) continue; // not yet recorded: due or overdue now
+        const windowClosedLongAgo = target + visit.windowAfter < today - 60;
+        if (!windowClosedLongAgo && r > 0.6) continue; // not yet recorded: due or overdue now
         const actualDate = addCalendarDays("1970-01-01", actual);
         const version = versionInForceOn(versions, actualDate);
         if (!version || !version.schedule.some((v) => v.code === visit.code)) continue;

@@ -17,7 +17,7 @@ export function SiteForm({ studyId, siteId, initial }: { studyId: string; siteId
       </button>
     );
   }
-  const contactsText = (initial?.contacts ?? []).map((c) => [c.name, c.role, c.email, c.phone ?? ""].join("; ")).join("\n");
+  const contactsText = (initial?.contacts ?? []).map((c) => [c.name, c.role, c.email, ...(c.phone ? [c.phone] : [])].join("; ")).join("\n");
   return (
     <form
       className="card grid max-w-3xl gap-3 sm:grid-cols-3"

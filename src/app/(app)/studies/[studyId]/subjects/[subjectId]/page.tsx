@@ -10,7 +10,9 @@ import { studyPath } from "@/lib/nav";
 import { subjectStatusLabels } from "@/lib/subjects/subject-states";
 import { protocolGovernsNotice } from "@/lib/visits/ical";
 import { StatusChip } from "@/components/status-chip";
+import { CorrectDatesForm } from "../_components/correct-dates-form";
 import { ReportDeviationForm } from "../_components/report-deviation-form";
+import { ResolveDeviationForm } from "../_components/resolve-deviation-button";
 import { SubjectStatusChip } from "../_components/subject-status-chip";
 import { SubjectStatusForm } from "../_components/subject-status-form";
 import { VisitCalendar } from "../_components/visit-calendar";
@@ -27,6 +29,7 @@ export default async function SubjectPage({ params }: { params: Promise<{ studyI
   if (!can(actor, "subjects.read", scope)) notFound();
   const { subject, site, calendar, history, deviations, consentVersion, versionsAtSite, nextStatuses } = detail;
   const canWrite = can(actor, "subjects.write", scope);
+  const canDeviations = can(actor, "deviations.write", scope);
   return (
     <div className="space-y-6">
       <header className="space-y-1">
@@ -105,6 +108,7 @@ export default async function SubjectPage({ params }: { params: Promise<{ studyI
                 <th>Visit</th>
                 <th>Description</th>
                 <th>State</th>
+                {canDeviations && <th />}
               </tr>
             </thead>
             <tbody>
@@ -114,19 +118,29 @@ export default async function SubjectPage({ params }: { params: Promise<{ studyI
                   <td>{d.category}</td>
                   <td className="font-mono">{d.visitCode ?? ""}</td>
                   <td>{d.description}</td>
-                  <td>{d.status === "open" ? <StatusChip tone="attention">Open</StatusChip> : <StatusChip tone="ok">Resolved</StatusChip>}</td>
+                  <td>
+                    {d.status === "open" ? <StatusChip tone="attention">Open</StatusChip> : <StatusChip tone="ok">Resolved</StatusChip>}
+                    {d.resolution && <p className="text-xs">{d.resolution}</p>}
+                  </td>
+                  {canDeviations && <td>{d.status === "open" && d.source === "manual" && <ResolveDeviationForm deviationId={d.id} />}</td>}
                 </tr>
               ))}
             </tbody>
           </table>
         )}
-        {can(actor, "deviations.write", scope) && (
+        {canDeviations && (
           <details>
             <summary className="cursor-pointer text-sm font-semibold">Report another deviation</summary>
             <ReportDeviationForm subjectId={subject.id} visitCodes={calendar.entries.map((e) => e.visitCode)} />
           </details>
         )}
       </section>
+      {canWrite && subject.status !== "screen_failed" && (
+        <details>
+          <summary className="cursor-pointer text-sm font-semibold">Correct recorded dates</summary>
+          <CorrectDatesForm subjectId={subject.id} dates={subject} />
+        </details>
+      )}
       <section className="space-y-2" aria-labelledby="history-heading">
         <h2 id="history-heading">Status history</h2>
         <table className="table-dense">

@@ -33,6 +33,11 @@ export function VisitCalendar({ subjectId, entries, canRecord, canVerify }: { su
           {entries.map((e) => (
             <Row key={e.visitCode} subjectId={subjectId} e={e} canRecord={canRecord} canVerify={canVerify} open={editing === e.visitCode} setOpen={(o) => setEditing(o ? e.visitCode : null)} />
           ))}
+          {entries.length === 0 && (
+            <tr>
+              <td colSpan={8 + (canRecord || canVerify ? 1 : 0)}>No visits: a subject who failed screening, or one with no protocol version in force at the site yet, has none.</td>
+            </tr>
+          )}
         </tbody>
       </table>
     </div>

@@ -98,9 +98,9 @@ export function DeviationLog({ studyId, sites }: { studyId: string; sites: { id:
           <tbody>
             {(data?.deviations ?? []).map((d) => (
               <tr key={d.id}>
-                <td className="font-mono">{d.occurredOn}</td>
+                <td className="whitespace-nowrap font-mono">{d.occurredOn}</td>
                 <td className="font-mono">{d.siteCode}</td>
-                <td>
+                <td className="whitespace-nowrap">
                   <a className="font-mono underline" href={`/studies/${studyId}/subjects/${d.subjectId}`}>
                     {d.subjectCode}
                   </a>
