@@ -5,6 +5,7 @@ import signIns from "../../scripts/seed/demo-sign-ins.json";
 import { SignInPage } from "./pages/sign-in-page";
 import { AcknowledgementPage } from "./pages/acknowledgement-page";
 import { launchBrowser, newPage } from "./support";
+import { siteDateAt } from "@/lib/acknowledgements/deadline";
 
 // Demo study KESTREL-VP: the medical reviewer releases the version in review; Prof. Dr. Carla Wendt,
 // investigator at DE01 (she acknowledged 2.0), is asked to acknowledge it, reads the redline and signs.
@@ -22,6 +23,7 @@ afterAll(async () => {
 });
 
 type Version = { id: string; versionLabel: string; state: string };
+let releasedLabel: string | undefined;
 
 describe("acknowledging a released protocol version", () => {
   it("release → task on the investigator's home → redline → sign with password → matrix shows it", async () => {
@@ -38,6 +40,7 @@ describe("acknowledging a released protocol version", () => {
     const released = await reviewer.api("POST", `/api/v1/protocol-versions/${candidate!.id}/release`, {});
     expect(released.status, JSON.stringify(released.json)).toBe(200);
     await reviewerPage.close();
+    releasedLabel = candidate!.versionLabel;
 
     // The release transaction asked every investigator of every open site (notifyVersionReleased).
     const { db } = await import("@/server/db/client");
@@ -63,8 +66,8 @@ describe("acknowledging a released protocol version", () => {
     const lastAcknowledged = json.versions.find((v) => v.versionLabel === "2.0");
     expect(redlineUrl.searchParams.get("from")).toBe(lastAcknowledged!.id);
     // The redline page shows the comparison (its heading names the versions), not an error.
-    await page.locator("main h1", { hasText: candidate!.versionLabel }).waitFor();
-    expect(await page.locator('main [role="alert"]').count()).toBe(0);
+    await page.locator("main h1:visible", { hasText: candidate!.versionLabel }).waitFor();
+    expect(await page.locator('main [role="alert"]:visible').count()).toBe(0);
     await page.goto(ackUrl);
     await page.waitForSelector('[data-testid="sign-form"]');
 
@@ -84,5 +87,25 @@ describe("acknowledging a released protocol version", () => {
     const row = ack.matrixRow(investigatorName);
     await row.filter({ hasText: "Acknowledged" }).waitFor();
     await page.close();
+  });
+
+  it("the DE01 coordinator records the ethics approval with its letter; the version is in force there from that day", async () => {
+    expect(releasedLabel, "the first test released a version").toBeDefined();
+    const coordinatorBrowser = await launchBrowser();
+    try {
+      const page = await newPage(coordinatorBrowser.context);
+      await new SignInPage(page).signInAndWaitForHome(signIns.byRole.coordinator, signIns.password);
+      const adoption = new AcknowledgementPage(page);
+      await adoption.openStudyHome("KESTREL-VP");
+      await page.locator('[data-testid="home-pending-approvals"]:visible', { hasText: `version ${releasedLabel}` }).waitFor();
+      await adoption.openAdoption();
+      expect(await adoption.adoptionCell("DE01", releasedLabel!).textContent()).toContain("Pending");
+      const today = siteDateAt(new Date(), "Europe/Berlin");
+      await adoption.recordApproval(releasedLabel!, today, "ec-approval-de01.pdf");
+      await adoption.adoptionCell("DE01", releasedLabel!).filter({ hasText: `Approved ${today}` }).waitFor();
+      expect(await adoption.inForce("DE01").textContent()).toBe(releasedLabel);
+    } finally {
+      await coordinatorBrowser.close();
+    }
   });
 });

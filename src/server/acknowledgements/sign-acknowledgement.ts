@@ -1,6 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
-import type { Tx } from "@/server/db/client";
+import { db, type Tx } from "@/server/db/client";
+import { recordAudit } from "@/server/audit/record-audit";
 import { acknowledgementRequests, electronicSignatures, memberships, protocolVersions, sites, studies, users } from "@/server/db/schema";
 import { verifyPassword } from "@/server/auth/password";
 import { isThrottled, recordAttempt } from "@/server/auth/throttle";
@@ -43,7 +44,16 @@ export async function signAcknowledgement(tx: Tx, actor: Actor, input: SignInput
 
   const ok = await verifyPassword(user.passwordHash, input.password);
   if (!ok) {
+    // Outside the transaction (which rolls back): the refusal stays counted and on the audit trail.
     await recordAttempt(user.email, false, input.ip ?? null);
+    await recordAudit(db, actor, {
+      action: "acknowledgement.sign_refused",
+      entityType: "acknowledgement_request",
+      entityId: row.request.id,
+      studyId: input.studyId,
+      siteId: input.siteId,
+      after: { reason: "wrong password", versionId: input.versionId },
+    });
     throw unprocessable("The password is not correct. Nothing was signed.", { password: ["The password is not correct."] });
   }
 

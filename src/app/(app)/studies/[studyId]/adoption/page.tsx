@@ -18,6 +18,7 @@ export default async function AdoptionPage({ params }: { params: Promise<{ study
   if (!canSomewhere(actor, "adoption.read", studyId)) notFound();
   const matrix = await listAdoptionMatrix(db, { studyId, siteIds: accessibleSiteIds(actor, "adoption.read", studyId) });
   const recordable = matrix.sites.filter((s) => can(actor, "adoption.record", { studyId, siteId: s.siteId }));
+  const labels = new Map(matrix.versions.map((v) => [v.id, v.versionLabel]));
   const pendingCount = matrix.sites.reduce((n, s) => n + s.cells.filter((c) => c.pending).length, 0);
 
   return (
@@ -47,9 +48,9 @@ export default async function AdoptionPage({ params }: { params: Promise<{ study
                 <th scope="row" className="font-mono">
                   {s.siteCode}
                 </th>
-                <td>{s.inForceVersionLabel ?? "—"}</td>
+                <td data-testid={`in-force-${s.siteCode}`}>{s.inForceVersionLabel ?? "—"}</td>
                 {s.cells.map((c) => (
-                  <td key={c.versionId}>
+                  <td key={c.versionId} data-testid={`adoption-${s.siteCode}-${labels.get(c.versionId)}`}>
                     {c.approval ? (
                       <span className="inline-flex flex-wrap items-center gap-1">
                         <StatusChip tone={c.inForceToday ? "ok" : "neutral"} icon={CircleCheck}>
