@@ -30,3 +30,8 @@ export const recordApprovalBody = z.object({
 export type RecordApprovalBody = z.infer<typeof recordApprovalBody>;
 
 export const adoptionQuery = z.object({ siteId: id.optional() });
+
+/** Study setting: days an investigator has to acknowledge a released version (site calendar days). */
+export const ackSettingsBody = z.object({
+  ackDeadlineDays: z.coerce.number().int("Whole days only").min(1, "At least 1 day").max(365, "At most 365 days"),
+});

@@ -50,7 +50,7 @@ describe("signing", () => {
     expect(await signatureRows()).toHaveLength(0);
     const audits = await db.select().from(auditEvents).where(and(eq(auditEvents.action, "acknowledgement.signed"), eq(auditEvents.actorId, fx.userByRole.investigator.id)));
     expect(audits).toHaveLength(0);
-    // The refusal itself is on the audit trail (21 CFR Part 11 §11.300(d) as the model: attempted misuse is reported).
+    // The refusal itself is on the audit trail (21 CFR Part 11 §11.300(d) as the model, from memory: attempted misuse is reported).
     const refused = await db.select().from(auditEvents).where(and(eq(auditEvents.action, "acknowledgement.sign_refused"), eq(auditEvents.actorId, fx.userByRole.investigator.id)));
     expect(refused).toHaveLength(1);
     const failures = await db.select().from(signInAttempts).where(and(eq(signInAttempts.email, fx.userByRole.investigator.email), eq(signInAttempts.succeeded, false)));

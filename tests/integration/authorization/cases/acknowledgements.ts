@@ -63,4 +63,12 @@ export const cases: RouteCase[] = [
     query: (fx) => ({ versionId: missingVersion, siteId: fx.siteA.id }),
     allow: [...readers],
   },
+  {
+    name: "set the acknowledgement deadline (sponsor administrator)",
+    route: "studies/[studyId]/acknowledgements/settings",
+    method: "PATCH",
+    params: (fx) => ({ studyId: fx.study.id }),
+    body: () => ({ ackDeadlineDays: 14 }),
+    allow: ["sponsor_admin"],
+  },
 ];

@@ -7,10 +7,11 @@ import { protocolVersions } from "@/server/db/schema";
 import { getStudyContext } from "@/server/studies/study-context";
 import { listSitesForStudy } from "@/server/studies/queries";
 import { listMyAcknowledgements } from "@/server/acknowledgements/list-matrix";
-import { accessibleSiteIds, canSomewhere } from "@/lib/auth/authorize";
+import { accessibleSiteIds, can, canSomewhere } from "@/lib/auth/authorize";
 import { acknowledgementStates, type AcknowledgementState } from "@/lib/acknowledgements/state";
 import { AckStatusChip } from "./_components/ack-status-chip";
 import { ComplianceMatrix } from "./_components/compliance-matrix";
+import { DeadlineSetting } from "./_components/deadline-setting";
 
 export const metadata: Metadata = { title: "Acknowledgements" };
 
@@ -71,6 +72,14 @@ export default async function AcknowledgementsPage({ params, searchParams }: { p
           initialState={acknowledgementStates.includes(state as AcknowledgementState) ? (state as AcknowledgementState) : undefined}
         />
       </section>
+      {can(actor, "study.manage", { studyId }) && (
+        <section className="card" aria-labelledby="deadline">
+          <h2 id="deadline" className="mb-2">
+            Deadline
+          </h2>
+          <DeadlineSetting studyId={studyId} days={study.ackDeadlineDays} />
+        </section>
+      )}
       <p className="governs">
         Due dates are counted in each site&apos;s calendar. The approved protocol, the signed agreement and the ethics committee&apos;s and regulators&apos; rules govern what must be acknowledged and by when.
       </p>
