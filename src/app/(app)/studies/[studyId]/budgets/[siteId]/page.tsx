@@ -6,6 +6,7 @@ import { db } from "@/server/db/client";
 import { protocolVersions, siteVersionApprovals } from "@/server/db/schema";
 import { getStudyContext } from "@/server/studies/study-context";
 import { getSiteBudget } from "@/server/budgets/queries";
+import { listPassThroughInvoices } from "@/server/budgets/pass-through-invoices";
 import { can } from "@/lib/auth/authorize";
 import { idSchema } from "@/lib/api/schemas";
 import { studyPath } from "@/lib/nav";
@@ -33,6 +34,7 @@ export default async function SiteBudgetPage({ params }: { params: Promise<{ stu
     .where(and(eq(siteVersionApprovals.siteId, siteId), inArray(protocolVersions.state, ["released", "superseded"])))
     .orderBy(desc(siteVersionApprovals.approvedOn));
   const labelOf = new Map(approvals.map((a) => [a.id, a.label]));
+  const invoices = await listPassThroughInvoices(db, { siteId });
 
   const shown: ScheduleVersion[] = versions.map((v) => ({
     ...v,
@@ -90,6 +92,33 @@ export default async function SiteBudgetPage({ params }: { params: Promise<{ stu
         govern; where they differ from this page, they prevail.
       </p>
       {shown.length === 0 ? <p>No budget has been entered for this site yet.</p> : <ContractSchedule currency={site.currency} versions={shown} />}
+      <section className="space-y-2" aria-labelledby="invoices-heading">
+        <h2 id="invoices-heading">Pass-through invoices approved</h2>
+        {invoices.length === 0 ? (
+          <p className="text-sm">None yet.</p>
+        ) : (
+          <table className="table-dense" data-testid="pass-through-invoices">
+            <thead>
+              <tr>
+                <th>Approved on</th>
+                <th>Description</th>
+                <th>Invoice file</th>
+                <th className="text-right">Amount</th>
+              </tr>
+            </thead>
+            <tbody>
+              {invoices.map(({ invoice, fileName }) => (
+                <tr key={invoice.id}>
+                  <td>{invoice.approvedOn}</td>
+                  <td>{invoice.description}</td>
+                  <td>{invoice.documentId ? <Link className="underline" href={studyPath(studyId, "documents")}>{fileName ?? "invoice"}</Link> : "—"}</td>
+                  <td className="amount">{formatMinor(invoice.amountMinor, site.currency)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
       {canWrite ? (
         <section className="card space-y-3">
           <h2>{latest ? "Amend the budget (a new version)" : "Enter the site's budget"}</h2>
