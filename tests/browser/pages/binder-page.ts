@@ -23,7 +23,8 @@ export class BinderPage {
 
   item(typeCode: string, personName?: string): Locator {
     const rows = this.page.locator(`tr[data-testid^="binder-item-${typeCode}-"]`);
-    return personName ? rows.filter({ hasText: personName }) : rows.first();
+    // The person is in the "Whose" column (the uploader's name may appear in another row too).
+    return personName ? rows.filter({ has: this.page.locator("td:nth-child(2)", { hasText: personName }) }) : rows.first();
   }
 
   async itemState(typeCode: string, personName?: string): Promise<string | null> {
@@ -51,7 +52,7 @@ export class BinderPage {
   }
 
   reviewRow(fileName: string): Locator {
-    return this.page.locator('[data-testid^="review-"]', { hasText: fileName });
+    return this.page.locator('tr[data-testid^="review-"]', { hasText: fileName });
   }
 
   async accept(fileName: string) {
