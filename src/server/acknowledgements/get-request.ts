@@ -21,12 +21,19 @@ export async function getAcknowledgementRequest(tx: Tx, { studyId, requestId, no
     const [c] = await tx.select({ id: protocolVersions.id, versionLabel: protocolVersions.versionLabel }).from(protocolVersions).where(eq(protocolVersions.id, request.compareToVersionId));
     compareTo = c ?? null;
   }
+  // Never acknowledged anything here: offer what changed from the version this one amends.
+  let parent: { id: string; versionLabel: string } | null = null;
+  if (!compareTo && version.parentId) {
+    const [pv] = await tx.select({ id: protocolVersions.id, versionLabel: protocolVersions.versionLabel }).from(protocolVersions).where(eq(protocolVersions.id, version.parentId));
+    parent = pv ?? null;
+  }
   return {
     request,
     version: { id: version.id, versionLabel: version.versionLabel, title: version.title, contentHash: version.contentHash, releasedAt: version.releasedAt, state: version.state },
     site: { id: site.id, code: site.code, name: site.name, timeZone: site.timeZone },
     study: { id: study.id, code: study.code },
     compareTo,
+    parent,
     meaning: acknowledgementMeaning({ versionLabel: version.versionLabel, studyCode: study.code }),
     status: acknowledgementStatus({ dueOn: request.dueOn, today: siteDateAt(now, site.timeZone), signedOn: signature ? siteDateAt(signature.signedAt, site.timeZone) : null }),
     signature,

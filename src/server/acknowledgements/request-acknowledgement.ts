@@ -11,7 +11,7 @@ import type { Actor } from "@/lib/auth/authorize";
 export type RequestTarget = {
   study: { id: string; code: string; ackDeadlineDays: number };
   site: { id: string; code: string; name: string; timeZone: string };
-  version: { id: string; versionLabel: string; title: string };
+  version: { id: string; versionLabel: string; title: string; parentId?: string | null };
   investigator: { id: string; email: string; name: string };
   reason: "release" | "joined";
   /** When the clock starts (the release, or now for someone who joined later). */
@@ -65,7 +65,9 @@ export async function requestAcknowledgement(tx: Tx, t: RequestTarget, actor: Pi
     `Read the version: ${base}${protocolVersionPath(t.study.id, t.version.id)}`,
     row.compareToVersionId
       ? `Changes since the version you last acknowledged: ${base}${redlinePath(t.study.id, row.compareToVersionId, t.version.id)}`
-      : "You have not acknowledged an earlier version at this site, so there is no redline to show.",
+      : t.version.parentId
+        ? `You have not acknowledged an earlier version at this site. Changes from the version this one amends: ${base}${redlinePath(t.study.id, t.version.parentId, t.version.id)}`
+        : "This is the first version of the protocol: there is no earlier version to compare with.",
     "",
     "The approved protocol and your ethics committee's decisions govern; this message is a reminder of the task in Cairn.",
   ];

@@ -155,9 +155,12 @@ describe("later versions and later investigators", () => {
     expect(req?.compareToVersionId).toBe(v1.id);
     const [mail] = await db.select().from(outboxMessages).where(eq(outboxMessages.dedupeKey, `ack-request:${req!.id}`));
     expect(mail?.textBody).toContain(`/studies/${fx.study.id}/protocol/compare?from=${v1.id}&to=${v2.id}`);
-    // Site B's investigator never acknowledged: no redline link.
+    // Site B's investigator never acknowledged: the link compares with the version 2.0 amends.
     const [reqB] = await db.select().from(acknowledgementRequests).where(and(eq(acknowledgementRequests.versionId, v2.id), eq(acknowledgementRequests.userId, fx.siteBPeople.investigator.id)));
     expect(reqB?.compareToVersionId).toBeNull();
+    const [mailB] = await db.select().from(outboxMessages).where(eq(outboxMessages.dedupeKey, `ack-request:${reqB!.id}`));
+    expect(mailB?.textBody).toContain("the version this one amends");
+    expect(mailB?.textBody).toContain(`compare?from=${v1.id}&to=${v2.id}`);
   });
 
   it("an investigator who joins a site later is asked for the version in force there", async () => {

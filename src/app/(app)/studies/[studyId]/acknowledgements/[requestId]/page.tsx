@@ -53,6 +53,13 @@ export default async function AcknowledgementPage({ params }: { params: Promise<
               </Link>
             </li>
           )}
+          {!ack.compareTo && ack.parent && (
+            <li>
+              <Link href={redlinePath(studyId, ack.parent.id, ack.version.id)} data-testid="open-redline">
+                Changes from version {ack.parent.versionLabel} (the version this one amends)
+              </Link>
+            </li>
+          )}
         </ul>
       </section>
       {s ? (
