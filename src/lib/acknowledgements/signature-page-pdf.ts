@@ -52,7 +52,9 @@ export function buildSignaturePagePdf(input: SignaturePageInput): Promise<Buffer
   pdf.moveDown(0.6).fillColor(INK).fontSize(11);
   pdf.font("bold").text(`Protocol version ${input.versionLabel}: `, { continued: true }).font("regular").text(input.versionTitle);
   pdf.font("bold").text("Site: ", { continued: true }).font("regular").text(`${input.site.code} — ${input.site.name} (time zone ${input.site.timeZone})`);
-  pdf.font("bold").text("Released content SHA-256: ", { continued: true }).font("regular").fontSize(9).text(input.contentHash);
+  // Hashes in Courier (a standard PDF font): monospace to read, and copyable as plain text.
+  pdf.font("bold").text("Released content SHA-256:");
+  pdf.font("Courier").fontSize(9).text(input.contentHash);
   rule();
 
   pdf.font("bold").fontSize(12).text(`Electronic signatures (${input.signatures.length})`);
@@ -65,8 +67,10 @@ export function buildSignaturePagePdf(input: SignaturePageInput): Promise<Buffer
     pdf.text(`Signed (UTC): ${s.signedAtUtc}`);
     pdf.text(`Signed (site time, ${input.site.timeZone}): ${s.signedAtSiteLocal}`);
     pdf.text(`Meaning: ${s.meaning}`);
-    pdf.fontSize(8).fillColor(MUTED).text(`Signed content SHA-256: ${s.contentHash}${s.contentHash === input.contentHash ? " (matches the released content)" : " (DOES NOT MATCH the released content)"}`);
+    pdf.fontSize(8).fillColor(MUTED).text("Signed content SHA-256:");
+    pdf.font("Courier").text(`${s.contentHash} ${s.contentHash === input.contentHash ? "(matches the released content)" : "(DOES NOT MATCH the released content)"}`);
     pdf.text(`Signature record ${s.signatureId}`);
+    pdf.font("regular");
     pdf.fillColor(INK);
     rule();
   }
