@@ -18,7 +18,7 @@ export async function getSubjectDetail(tx: Tx, { subjectId, now }: { subjectId: 
       .from(subjectStatusEvents)
       .leftJoin(users, eq(users.id, subjectStatusEvents.actorId))
       .where(eq(subjectStatusEvents.subjectId, subjectId))
-      .orderBy(asc(subjectStatusEvents.at)),
+      .orderBy(asc(subjectStatusEvents.effectiveOn), asc(subjectStatusEvents.at)),
     tx.select().from(deviations).where(eq(deviations.subjectId, subjectId)).orderBy(desc(deviations.occurredOn)),
   ]);
   return {

@@ -50,22 +50,24 @@ function Row({ subjectId, e, canRecord, canVerify, open, setOpen }: { subjectId:
   return (
     <>
       <tr data-visit={e.visitCode}>
-        <td>
+        <td className="min-w-40">
           <span className="font-mono">{e.visitCode}</span> {e.label}
         </td>
         <td>{e.versionLabel}</td>
-        <td className="font-mono">{e.targetDate ?? "—"}</td>
-        <td className="font-mono">{e.windowStart ? `${e.windowStart} – ${e.windowEnd}` : `${e.anchor} date not recorded`}</td>
+        <td className="whitespace-nowrap font-mono">{e.targetDate ?? "—"}</td>
+        <td className="whitespace-nowrap font-mono">{e.windowStart ? `${e.windowStart} – ${e.windowEnd}` : `${e.anchor} date not recorded`}</td>
         <td>
-          <VisitStateChip state={e.state} /> <span className="text-xs">{days(e.daysOutsideWindow)}</span>
+          <span className="inline-flex items-center gap-1 whitespace-nowrap">
+            <VisitStateChip state={e.state} /> <span className="text-xs">{days(e.daysOutsideWindow)}</span>
+          </span>
         </td>
-        <td className="font-mono">{e.actualDate ?? ""}</td>
-        <td className="font-mono">{e.dataEnteredOn ?? ""}</td>
-        <td className="font-mono">{e.verifiedOn ?? ""}</td>
+        <td className="whitespace-nowrap font-mono">{e.actualDate ?? ""}</td>
+        <td className="whitespace-nowrap font-mono">{e.dataEnteredOn ?? ""}</td>
+        <td className="whitespace-nowrap font-mono">{e.verifiedOn ?? ""}</td>
         {(canRecord || canVerify) && (
           <td>
             {canRecord && e.state !== "not_scheduled" && (
-              <button type="button" className="btn-secondary" onClick={() => setOpen(!open)} aria-expanded={open}>
+              <button type="button" className="btn-secondary whitespace-nowrap" onClick={() => setOpen(!open)} aria-expanded={open}>
                 {e.recorded ? "Correct" : "Record"} {e.visitCode}
               </button>
             )}
