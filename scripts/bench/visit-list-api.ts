@@ -95,8 +95,8 @@ try {
   const [study] = await db.insert(schema.studies).values({ code: `BENCH-${tag}`, title: "Generated study", sponsorName: "Bench" }).returning();
   studyId = study!.id;
   userId = user!.id;
-  const [v1] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "1.0", state: "superseded", title: "Plan", content: {}, visitSchedule: scheduleV1, authorId: user!.id, releasedAt: new Date("2022-01-01") }).returning();
-  const [v2] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "2.0", state: "released", title: "Plan", content: {}, visitSchedule: scheduleV2, authorId: user!.id, releasedAt: new Date("2025-06-01") }).returning();
+  const [v1] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "1.0", state: "superseded", title: "Plan", content: {}, visitSchedule: scheduleV1, authorId: user!.id, releasedAt: new Date("2022-01-01"), contentHash: "0".repeat(64) }).returning();
+  const [v2] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "2.0", state: "released", title: "Plan", content: {}, visitSchedule: scheduleV2, authorId: user!.id, releasedAt: new Date("2025-06-01"), contentHash: "0".repeat(64) }).returning();
   const siteRows = await db
     .insert(schema.sites)
     .values(Array.from({ length: SITES }, (_, i) => ({ studyId: study!.id, code: `BS${String(i + 1).padStart(4, "0")}`, name: `Site ${i + 1}`, country: "DE", timeZone: "Europe/Berlin", currency: "EUR", targetEnrolment: SUBJECTS_PER_SITE, status: "open" as const })))

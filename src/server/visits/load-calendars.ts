@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { asc, eq, inArray } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { sites, subjects, visitRecords, type Site, type Subject } from "@/server/db/schema";
 import { listVersionsInForceAtSites, type VersionInForceAtSite } from "@/server/protocol/in-force";
@@ -19,26 +19,39 @@ export async function loadCalendars(tx: Tx, filter: Filter & { now?: Date; asOf?
   const ids = filter.siteIds ?? filter.subjectIds;
   if (ids.length === 0) return [];
   const where = filter.siteIds ? inArray(subjects.siteId, [...filter.siteIds]) : inArray(subjects.id, [...filter.subjectIds!]);
-  const subjectRows = await tx.select().from(subjects).where(where).orderBy(asc(subjects.code));
+  const recordsQuery = tx
+    .select({
+      subjectId: visitRecords.subjectId,
+      visitCode: visitRecords.visitCode,
+      versionId: visitRecords.versionId,
+      status: visitRecords.outcome,
+      actualDate: visitRecords.actualDate,
+      dataEnteredOn: visitRecords.dataEnteredOn,
+      verifiedOn: visitRecords.verifiedOn,
+    })
+    .from(visitRecords)
+    .innerJoin(subjects, eq(subjects.id, visitRecords.subjectId))
+    .where(where);
+  // By site, every query can start at once; by subject, the sites are known only from the subjects.
+  let subjectRows: Subject[];
+  let siteRows: Site[];
+  let versionsBySite: Map<string, VersionInForceAtSite[]>;
+  let recordRows: Awaited<typeof recordsQuery>;
+  if (filter.siteIds) {
+    const siteIds = [...filter.siteIds];
+    [subjectRows, siteRows, versionsBySite, recordRows] = await Promise.all([
+      tx.select().from(subjects).where(where).orderBy(asc(subjects.code)),
+      tx.select().from(sites).where(inArray(sites.id, siteIds)),
+      listVersionsInForceAtSites(tx, { siteIds }),
+      recordsQuery,
+    ]);
+  } else {
+    subjectRows = await tx.select().from(subjects).where(where).orderBy(asc(subjects.code));
+    if (subjectRows.length === 0) return [];
+    const siteIds = [...new Set(subjectRows.map((s) => s.siteId))];
+    [siteRows, versionsBySite, recordRows] = await Promise.all([tx.select().from(sites).where(inArray(sites.id, siteIds)), listVersionsInForceAtSites(tx, { siteIds }), recordsQuery]);
+  }
   if (subjectRows.length === 0) return [];
-  const siteIds = [...new Set(subjectRows.map((s) => s.siteId))];
-  const [siteRows, versionsBySite, recordRows] = await Promise.all([
-    tx.select().from(sites).where(inArray(sites.id, siteIds)),
-    listVersionsInForceAtSites(tx, { siteIds }),
-    tx
-      .select({
-        subjectId: visitRecords.subjectId,
-        visitCode: visitRecords.visitCode,
-        versionId: visitRecords.versionId,
-        status: visitRecords.outcome,
-        actualDate: visitRecords.actualDate,
-        dataEnteredOn: visitRecords.dataEnteredOn,
-        verifiedOn: visitRecords.verifiedOn,
-      })
-      .from(visitRecords)
-      .innerJoin(subjects, eq(subjects.id, visitRecords.subjectId))
-      .where(filter.siteIds ? inArray(subjects.siteId, [...filter.siteIds]) : and(inArray(visitRecords.subjectId, [...filter.subjectIds!]))),
-  ]);
   const siteById = new Map(siteRows.map((s) => [s.id, s]));
   const recordsBySubject = new Map<string, RecordedVisit[]>();
   for (const { subjectId, ...r } of recordRows) {
