@@ -136,3 +136,21 @@ export function reconcile(input: ReconInput): ReconRow[] {
   for (const r of rows.values()) r.notYetPaidMinor = r.earnedMinor - r.inRunMinor - r.sentMinor - r.paidMinor - r.paidElsewhereMinor;
   return [...rows.values()].sort((a, b) => (a.siteId === b.siteId ? a.currency.localeCompare(b.currency) : a.siteId.localeCompare(b.siteId)));
 }
+
+/** Study-wide totals per currency (amounts in different currencies are never added together). */
+export function totalsByCurrency(rows: readonly ReconRow[]): ReconRow[] {
+  const out = new Map<string, ReconRow>();
+  for (const r of rows) {
+    const t = out.get(r.currency);
+    if (!t) {
+      out.set(r.currency, { ...r, siteId: "", aging: structuredClone(r.aging) });
+      continue;
+    }
+    for (const k of ["earnedMinor", "inRunMinor", "sentMinor", "paidMinor", "confirmedMinor", "queriedMinor", "failedMinor", "notYetPaidMinor", "paidElsewhereMinor", "awaitingConfirmationMinor", "differenceMinor"] as const) t[k] += r[k];
+    for (const b of agingBuckets) {
+      t.aging[b].count += r.aging[b].count;
+      t.aging[b].amountMinor += r.aging[b].amountMinor;
+    }
+  }
+  return [...out.values()].sort((a, b) => a.currency.localeCompare(b.currency));
+}

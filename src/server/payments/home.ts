@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray, isNull, ne } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { paymentConfirmations, paymentQueries, paymentRuns, paymentTransfers, sites, users } from "@/server/db/schema";
 
@@ -17,14 +17,20 @@ export async function listRunsAwaitingApproval(tx: Tx, { studyId }: { studyId: s
     .orderBy(asc(paymentRuns.number));
 }
 
-/** Failed or reversed transfers whose lines are due again. */
+/** Failed or reversed transfers whose lines are due again and not yet in another run. */
 export async function listFailedTransfers(tx: Tx, { studyId }: { studyId: string }) {
   return tx
     .select({ id: paymentTransfers.id, runId: paymentTransfers.runId, runNumber: paymentRuns.number, siteCode: sites.code, currency: paymentTransfers.currency, amountMinor: paymentTransfers.amountMinor, state: paymentTransfers.state, failureMessage: paymentTransfers.failureMessage })
     .from(paymentTransfers)
     .innerJoin(sites, eq(sites.id, paymentTransfers.siteId))
     .innerJoin(paymentRuns, eq(paymentRuns.id, paymentTransfers.runId))
-    .where(and(eq(paymentTransfers.studyId, studyId), inArray(paymentTransfers.state, ["failed", "reversed"])))
+    .where(
+      and(
+        eq(paymentTransfers.studyId, studyId),
+        inArray(paymentTransfers.state, ["failed", "reversed"]),
+        sql`not exists (select 1 from payment_run_lines l1 join payment_run_lines l2 on l2.site_id = l1.site_id and l2.line_key = l1.line_key and l2.state in ('in_run', 'sent', 'paid') where l1.transfer_id = ${paymentTransfers.id})`,
+      ),
+    )
     .orderBy(asc(paymentTransfers.failedAt));
 }
 

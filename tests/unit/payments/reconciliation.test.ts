@@ -65,3 +65,26 @@ describe("remittance CSV (RFC 4180)", () => {
     expect(csv.endsWith("\r\n")).toBe(true);
   });
 });
+
+describe("study-wide totals by currency", () => {
+  it("adds sites of one currency and keeps currencies apart", async () => {
+    const { totalsByCurrency } = await import("@/lib/payments/reconciliation");
+    const rows = reconcile({
+      todayBySite: new Map(),
+      earned: [
+        { siteId: "A", currency: "EUR", netMinor: 100n },
+        { siteId: "B", currency: "EUR", netMinor: 50n },
+        { siteId: "C", currency: "JPY", netMinor: 7000n },
+      ],
+      inRun: [],
+      transfers: [],
+      queries: [],
+    });
+    const t = totalsByCurrency(rows);
+    expect(t.map((r) => [r.currency, r.earnedMinor])).toEqual([
+      ["EUR", 150n],
+      ["JPY", 7000n],
+    ]);
+    expect(rows.find((r) => r.siteId === "A")!.earnedMinor).toBe(100n); // the site rows are left as they were
+  });
+});

@@ -6,7 +6,7 @@ import { getReconciliation } from "@/server/payments/reconciliation";
 import { listPaymentQueries } from "@/server/payments/queries";
 import { accessibleSiteIds, can, canSomewhere } from "@/lib/auth/authorize";
 import { formatMinor } from "@/lib/money";
-import { agingBuckets, type ReconRow } from "@/lib/payments/reconciliation";
+import { agingBuckets, totalsByCurrency, type ReconRow } from "@/lib/payments/reconciliation";
 import { queryStateLabels, transferStateLabels } from "@/lib/payments/labels";
 import { PaymentChip } from "../payment-runs/_components/payment-chip";
 import { ConfirmReceipt } from "./_components/confirm-receipt";
@@ -93,6 +93,8 @@ export default async function ReconciliationPage({ params }: { params: Promise<{
         <section className="space-y-2" aria-labelledby="study-heading">
           <h2 id="study-heading">Study-wide by site and currency</h2>
           <FiguresTable rows={recon.rows} siteCode={siteCode} testId="recon-study" />
+          <h3>Totals by currency</h3>
+          <FiguresTable rows={totalsByCurrency(recon.rows)} siteCode={() => "All sites"} testId="recon-currency-totals" />
         </section>
       )}
 

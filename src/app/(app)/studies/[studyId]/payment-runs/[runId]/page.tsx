@@ -12,6 +12,7 @@ import { lineStateLabels, runStateLabels } from "@/lib/payments/labels";
 import { PaymentChip } from "../_components/payment-chip";
 import { RunActions } from "./_components/run-actions";
 import { RunProgress } from "./_components/run-progress";
+import { RaiseQuery } from "../../reconciliation/_components/raise-query";
 
 export const metadata: Metadata = { title: "Payment run" };
 
@@ -91,6 +92,7 @@ export default async function PaymentRunPage({ params }: { params: Promise<{ stu
                 <th>Due</th>
                 <th>State</th>
                 <th className="text-right">Amount</th>
+                <th />
               </tr>
             </thead>
             <tbody>
@@ -107,6 +109,7 @@ export default async function PaymentRunPage({ params }: { params: Promise<{ stu
                     <PaymentChip table={lineStateLabels} state={l.state} /> {l.stateReason && <span className="text-xs text-muted">{l.stateReason}</span>}
                   </td>
                   <td className="amount">{formatMinor(l.amountMinor, l.currency)}</td>
+                  <td>{l.state !== "in_run" && can(actor, "payments.query", { studyId, siteId: l.siteId }) && <RaiseQuery siteId={l.siteId} lineKey={l.lineKey} label="Query this line" />}</td>
                 </tr>
               ))}
             </tbody>

@@ -4,8 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { apiFetch } from "@/lib/api/client";
 
-/** Raise a query on a payment (the other side is told by e-mail). */
-export function RaiseQuery({ siteId, transferId }: { siteId: string; transferId: string }) {
+/** Raise a query on a payment or one of its lines (the other side is told by e-mail). */
+export function RaiseQuery({ siteId, transferId, lineKey, label = "Raise a query" }: { siteId: string; transferId?: string; lineKey?: string; label?: string }) {
   const router = useRouter();
   const [open, setOpen] = useState(false);
   const [subject, setSubject] = useState("");
@@ -14,14 +14,14 @@ export function RaiseQuery({ siteId, transferId }: { siteId: string; transferId:
   if (!open)
     return (
       <button type="button" className="btn-secondary" onClick={() => setOpen(true)}>
-        Raise a query
+        {label}
       </button>
     );
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
     setError(null);
     try {
-      await apiFetch(`/api/v1/sites/${siteId}/payment-queries`, { method: "POST", json: { transferId, subject, message } });
+      await apiFetch(`/api/v1/sites/${siteId}/payment-queries`, { method: "POST", json: { transferId: transferId ?? null, lineKey: lineKey ?? null, subject, message } });
       setOpen(false);
       router.refresh();
     } catch (err) {
