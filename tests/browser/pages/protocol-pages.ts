@@ -18,7 +18,15 @@ export class ProtocolPages {
 
   async openVersion(studyId: string, versionId: string) {
     await this.page.goto(`${appUrl()}/studies/${studyId}/protocol/${versionId}`);
-    await this.page.getByTestId("protocol-text").waitFor();
+    await this.waitForVersionPage();
+  }
+
+  /** Streaming may show a hidden copy of the page for a moment before React reveals it. */
+  async waitForVersionPage() {
+    await this.page.waitForFunction(() => {
+      const found = document.querySelectorAll('[data-testid="protocol-text"]');
+      return found.length === 1 && !found[0]!.closest("[hidden]");
+    });
   }
 
   versionIdFromUrl(): string {
@@ -76,7 +84,7 @@ export class ProtocolPages {
   async submit() {
     await this.page.getByRole("button", { name: "Submit for review" }).click();
     await this.page.waitForURL(/\/protocol\/[0-9a-f-]{36}$/);
-    await this.page.getByTestId("protocol-text").waitFor();
+    await this.waitForVersionPage();
   }
 
   async state() {
