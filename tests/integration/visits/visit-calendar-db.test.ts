@@ -9,6 +9,9 @@ import { GET as listFeedsRoute, POST as createFeedRoute } from "@/app/api/v1/sit
 import { DELETE as revokeFeedRoute } from "@/app/api/v1/calendar-feed-tokens/[tokenId]/route";
 import { GET as feedRoute } from "@/app/api/v1/calendar-feeds/[token]/route";
 import { GET as deviationLogRoute } from "@/app/api/v1/studies/[studyId]/deviations/route";
+import { PATCH as updateSubjectRoute } from "@/app/api/v1/subjects/[subjectId]/route";
+import { POST as reportDeviationRoute } from "@/app/api/v1/subjects/[subjectId]/deviations/route";
+import { PATCH as resolveDeviationRoute } from "@/app/api/v1/deviations/[deviationId]/route";
 import { auditEvents, deviations, memberships } from "@/server/db/schema";
 import { loadCalendars } from "@/server/visits/load-calendars";
 import { todayAtSite } from "@/server/sites/site-today";
@@ -80,6 +83,34 @@ describe("out-of-window visits and their deviation", () => {
     expect(rows[0]!.resolution).toMatch(/inside its window/);
     const trail = await db.select({ action: auditEvents.action }).from(auditEvents).where(eq(auditEvents.entityId, rows[0]!.id));
     expect(trail.map((t) => t.action)).toEqual(["deviation.open", "deviation.update", "deviation.resolve"]);
+  });
+
+  it("resolves the deviation when a corrected implant date brings the visit back into its window", async () => {
+    const s = await insertSubject(fx, { siteId: fx.siteA.id, code: "TA01-406", enrolmentDate: "2025-02-20", implantDate: "2025-03-03" });
+    await record(s.id, { visitCode: "W1", outcome: "done", actualDate: "2025-03-17" }); // window 03-07 … 03-13: 4 days late
+    expect((await db.select().from(deviations).where(eq(deviations.subjectId, s.id)))[0]).toMatchObject({ status: "open", daysOutside: 4 });
+    // The implant was in fact on 2025-03-07: W1's window becomes 03-11 … 03-17 (date-fns: 03-07 + 7 ± 3).
+    expect(plus("2025-03-07", 10)).toBe("2025-03-17");
+    const res = await callRoute(updateSubjectRoute, { method: "PATCH", params: { subjectId: s.id }, body: { implantDate: "2025-03-07" }, userId: fx.userByRole.coordinator.id });
+    expect(res.status, JSON.stringify(res.json)).toBe(200);
+    const rows = await db.select().from(deviations).where(eq(deviations.subjectId, s.id));
+    expect(rows).toHaveLength(1);
+    expect(rows[0]!.status).toBe("resolved");
+  });
+
+  it("takes other deviations from the site or the monitor, and resolves them with a note", async () => {
+    const s = await insertSubject(fx, { siteId: fx.siteA.id, code: "TA01-407", enrolmentDate: "2025-02-20", implantDate: "2025-03-03" });
+    const report = (body: unknown, userId = fx.userByRole.monitor.id) => callRoute(reportDeviationRoute, { method: "POST", params: { subjectId: s.id }, body, userId });
+    expect((await report({ category: "visit out of window", occurredOn: "2025-03-20", description: "Recorded by hand instead" })).status).toBe(400);
+    expect((await report({ category: "consent", occurredOn: "2025-01-20", description: "Dated before the subject's consent" })).status).toBe(422);
+    const ok = await report({ category: "procedure not done", occurredOn: "2025-04-02", visitCode: "M1", description: "Questionnaire skipped at the Month 1 visit" });
+    expect(ok.status).toBe(201);
+    expect(ok.json.deviation).toMatchObject({ source: "manual", status: "open", category: "procedure not done" });
+    const resolve = (userId: string) => callRoute(resolveDeviationRoute, { method: "PATCH", params: { deviationId: ok.json.deviation.id }, body: { resolution: "Questionnaire completed by telephone" }, userId });
+    expect((await resolve(fx.siteBPeople.coordinator.id)).status).toBe(404);
+    const done = await resolve(fx.userByRole.coordinator.id);
+    expect(done.json.deviation).toMatchObject({ status: "resolved", resolution: "Questionnaire completed by telephone" });
+    expect((await resolve(fx.userByRole.coordinator.id)).status).toBe(409);
   });
 
   it("shows in the sponsor's deviation log, filtered and as CSV", async () => {
