@@ -53,6 +53,15 @@ export function tinyPdf(title: string): Buffer {
   return Buffer.from(out, "latin1");
 }
 
+/** "Dr. Élodie Chappuis" → "dr-elodie-chappuis" (file names stay ASCII). */
+const slug = (name: string) =>
+  name
+    .normalize("NFD")
+    .replace(/[\u0300-\u036f]/g, "")
+    .toLowerCase()
+    .replace(/[^a-z]+/g, "-")
+    .replace(/^-|-$/g, "");
+
 async function storage(log: (m: string) => void) {
   const bucket = process.env.S3_BUCKET ?? "cairn-documents";
   const client = new S3Client({
@@ -111,9 +120,19 @@ export async function seedBinder({ db, log }: SeedContext) {
           const spec = plan.items[`${type.code}#${n}`] ?? plan.items[type.code] ?? plan.rest;
           if (spec === "skip") continue;
           const review = spec.review ?? "accepted";
-          // Expiry relative to today: expired 20 days ago, expiring in 25 days, or well in date.
-          const expiresOn = type.expires ? (spec.expiry === "expired" ? addCalendarDays(today, -20) : spec.expiry === "expiring" ? addCalendarDays(today, 25) : addCalendarDays(today, 400)) : null;
-          const issuedOn = expiresOn && type.validityMonths ? addMonths(expiresOn, -type.validityMonths) : addCalendarDays(today, -300);
+          // Dates relative to today: expired 20 days ago, expiring in 25 days, or issued 200 days ago
+          // and valid for the usual validity (400 days when the type has none); never issued in the future.
+          let issuedOn = addCalendarDays(today, -200);
+          let expiresOn: string | null = null;
+          if (type.expires) {
+            if (spec.expiry === "expired" || spec.expiry === "expiring") {
+              expiresOn = addCalendarDays(today, spec.expiry === "expired" ? -20 : 25);
+              if (type.validityMonths) issuedOn = addMonths(expiresOn, -type.validityMonths);
+              else issuedOn = addCalendarDays(expiresOn, -730);
+            } else {
+              expiresOn = type.validityMonths ? addMonths(issuedOn, type.validityMonths) : addCalendarDays(today, 400);
+            }
+          }
           const versions = spec.older ? 2 : 1;
           let previous: string | null = null;
           for (let v = 1; v <= versions; v++) {
@@ -130,7 +149,7 @@ export async function seedBinder({ db, log }: SeedContext) {
                 siteId: site.id,
                 purpose: type.code,
                 storageKey,
-                fileName: `${type.code}${person ? `-${person.name.toLowerCase().replace(/[^a-z]+/g, "-").replace(/^-|-$/g, "")}` : ""}-v${v}.pdf`,
+                fileName: `${type.code}${person ? `-${slug(person.name)}` : ""}-v${v}.pdf`,
                 contentType: "application/pdf",
                 sizeBytes: body.length,
                 sha256: createHash("sha256").update(body).digest("hex"),

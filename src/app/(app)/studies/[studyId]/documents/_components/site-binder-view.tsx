@@ -181,7 +181,7 @@ function ItemRow({ item, studyId, siteId, canUpload, canReview, maxBytes, onChan
         <td>{item.type.holder === "site" ? "Site" : (item.person?.name ?? "Nobody in the role yet")}</td>
         <td>{item.type.requiredFrom ? `From ${siteStatusLabels[item.type.requiredFrom]}${item.required ? "" : " (not yet)"}` : "Optional"}</td>
         <td>
-          <BinderStateChip state={item.state} />
+          {item.required || c ? <BinderStateChip state={item.state} /> : <span className="text-xs text-muted">{item.type.requiredFrom ? "Not required yet" : "None held"}</span>}
           {item.state === "rejected" && c?.reviewReason && <div className="text-xs">Reason: {c.reviewReason}</div>}
         </td>
         <td>
