@@ -43,3 +43,33 @@ export class LedgerPage {
     return { name: download.suggestedFilename(), text: Buffer.concat(chunks).toString("utf8") };
   }
 }
+
+/** Page object for Budgets: the list, a site's contract-schedule view and the amendment form. */
+export class BudgetPage {
+  constructor(private readonly page: Page) {}
+
+  async openSite(studyCode: string, siteCode: string) {
+    await this.page.goto(`${appUrl()}/`);
+    const study = this.page.getByRole("link", { name: studyCode, exact: true });
+    if (await study.count()) await study.first().click();
+    await this.page.locator('[data-testid="main-nav"] a', { hasText: "Budgets" }).click();
+    await this.page.locator('[data-testid="budgets-table"] a', { hasText: siteCode }).click();
+    await this.page.waitForSelector('[data-testid="contract-schedule"]');
+  }
+
+  versionHeadings() {
+    return this.page.locator('[data-testid="contract-schedule"] article h2').allTextContents();
+  }
+
+  async setStartupFee(value: string) {
+    await this.page.getByLabel(/^Start-up fee/).fill(value);
+  }
+
+  async save() {
+    await this.page.getByRole("button", { name: /^Save version/ }).click();
+  }
+
+  fieldAlerts() {
+    return this.page.locator('form[aria-label="Budget version"] [role="alert"]').allTextContents();
+  }
+}
