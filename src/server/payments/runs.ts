@@ -216,3 +216,17 @@ export async function requestSendPaymentRun(tx: Tx, { runId, actorId }: { runId:
   const [after] = await tx.update(paymentRuns).set({ state: "sending", sendRequestedBy: actorId, sendRequestedAt: new Date() }).where(eq(paymentRuns.id, runId)).returning();
   return { before: run, after: after!, changed: true, transfers: inserted.length };
 }
+
+/**
+ * Withdraw a run nobody has approved yet: its lines are released (due again) and the run stays
+ * listed as cancelled. The audit event keeps the lines it held. An approved run cannot be cancelled.
+ */
+export async function cancelPaymentRun(tx: Tx, { runId, actorId }: { runId: string; actorId: string }) {
+  const [run] = await tx.select().from(paymentRuns).where(eq(paymentRuns.id, runId)).for("update").limit(1);
+  if (!run) throw notFound("That payment run");
+  if (run.state === "cancelled") return { before: run, after: run, lines: [], changed: false };
+  if (run.state !== "prepared") throw conflict("Only a run that is not yet approved can be cancelled.");
+  const lines = await tx.delete(paymentRunLines).where(eq(paymentRunLines.runId, runId)).returning();
+  const [after] = await tx.update(paymentRuns).set({ state: "cancelled", cancelledBy: actorId, cancelledAt: new Date() }).where(eq(paymentRuns.id, runId)).returning();
+  return { before: run, after: after!, lines, changed: true };
+}

@@ -105,3 +105,20 @@ describe("site finance sees and acts on its own site only", () => {
     expect(row.differenceMinor).toBe("0");
   });
 });
+
+describe("cancelling", () => {
+  it("a prepared run can be cancelled and its lines are due again; an approved one cannot", async () => {
+    const { POST: cancel } = await import("@/app/api/v1/payment-runs/[runId]/cancel/route");
+    const { fx, approver } = await paymentsFixture(pf);
+    const user = fx.userByRole.sponsor_finance.id;
+    const first = await callRoute(createRun, { method: "POST", params: { studyId: fx.study.id }, body: { siteIds: [fx.siteA.id] }, userId: user });
+    const c = await callRoute(cancel, { method: "POST", params: { runId: first.json.run.id }, userId: user });
+    expect(c.status).toBe(200);
+    expect(c.json.run.state).toBe("cancelled");
+    const second = await callRoute(createRun, { method: "POST", params: { studyId: fx.study.id }, body: { siteIds: [fx.siteA.id] }, userId: user });
+    expect(second.status).toBe(201);
+    expect(second.json.run.lineCount).toBe(first.json.run.lineCount);
+    await callRoute(approve, { method: "POST", params: { runId: second.json.run.id }, body: { contentHash: second.json.run.contentHash }, userId: approver.id });
+    expect((await callRoute(cancel, { method: "POST", params: { runId: second.json.run.id }, userId: user })).status).toBe(409);
+  });
+});

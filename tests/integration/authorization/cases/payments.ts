@@ -12,7 +12,7 @@ import type { RouteCase } from "../route-case";
 // may approve), a paid payment to site A and an open query at site A. They are made once per
 // fixture, before the first signed-in call (the first call of each case is the signed-out one).
 
-type Made = { preparedRunId: string; preparedHash: string; approvedRunId: string; transferId: string; queryId: string };
+type Made = { preparedRunId: string; preparedHash: string; approvedRunId: string; cancelRunId: string; transferId: string; queryId: string };
 const made = new Map<string, Made>();
 let lastFx: StudyFixture | null = null;
 const NONE = "00000000-0000-4000-8000-000000000000";
@@ -33,6 +33,7 @@ async function makeData(fx: StudyFixture): Promise<Made> {
   const prepared = await makeRun(fx, preparer!.id, 9001, `case:${fx.tag}:1`, "prepared");
   const approved = await makeRun(fx, preparer!.id, 9002, `case:${fx.tag}:2`, "approved");
   const paidRun = await makeRun(fx, preparer!.id, 9003, `case:${fx.tag}:3`, "sent");
+  const toCancel = await makeRun(fx, preparer!.id, 9004, `case:${fx.tag}:4`, "prepared");
   const [t] = await db
     .insert(paymentTransfers)
     .values({ runId: paidRun.id, studyId: fx.study.id, siteId: fx.siteA.id, currency: "EUR", amountMinor: 10_000n, stripeAmount: 10_000n, destinationAccountId: `acct_case_${fx.tag}`, idempotencyKey: transferIdempotencyKey(paidRun.id, fx.siteA.id, "EUR"), stripeTransferId: `tr_case_${fx.tag}`, state: "paid", sentAt: new Date(), paidAt: new Date() })
@@ -40,7 +41,7 @@ async function makeData(fx: StudyFixture): Promise<Made> {
   await db.update(paymentRunLines).set({ transferId: t!.id, state: "paid" }).where(eq(paymentRunLines.runId, paidRun.id));
   const [q] = await db.insert(paymentQueries).values({ studyId: fx.study.id, siteId: fx.siteA.id, transferId: t!.id, subject: "Amount differs", raisedBy: fx.userByRole.site_finance.id }).returning();
   await db.insert(paymentQueryMessages).values({ queryId: q!.id, authorId: fx.userByRole.site_finance.id, side: "site", body: "Our bank shows less." });
-  return { preparedRunId: prepared.id, preparedHash: prepared.hash, approvedRunId: approved.id, transferId: t!.id, queryId: q!.id };
+  return { preparedRunId: prepared.id, preparedHash: prepared.hash, approvedRunId: approved.id, cancelRunId: toCancel.id, transferId: t!.id, queryId: q!.id };
 }
 
 beforeEach(async () => {
@@ -49,7 +50,7 @@ beforeEach(async () => {
 
 const data = (fx: StudyFixture): Made => {
   lastFx = fx;
-  return made.get(fx.tag) ?? { preparedRunId: NONE, preparedHash: "0".repeat(64), approvedRunId: NONE, transferId: NONE, queryId: NONE };
+  return made.get(fx.tag) ?? { preparedRunId: NONE, preparedHash: "0".repeat(64), approvedRunId: NONE, cancelRunId: NONE, transferId: NONE, queryId: NONE };
 };
 
 const readers = ["sponsor_admin", "site_finance", "sponsor_finance", "auditor"] as const;
@@ -83,6 +84,7 @@ export const cases: RouteCase[] = [
     body: (fx) => ({ contentHash: data(fx).preparedHash }),
     allow: ["sponsor_finance"],
   },
+  { name: "cancel a run not yet approved", route: "payment-runs/[runId]/cancel", method: "POST", params: (fx) => ({ runId: data(fx).cancelRunId }), allow: ["sponsor_finance"] },
   { name: "send an approved run", route: "payment-runs/[runId]/send", method: "POST", params: (fx) => ({ runId: data(fx).approvedRunId }), allow: ["sponsor_finance"] },
   { name: "reconciliation", route: "studies/[studyId]/reconciliation", method: "GET", params: (fx) => (data(fx), { studyId: fx.study.id }), allow: [...readers], allowSiteB: ["site_finance"] },
   { name: "payment queries", route: "studies/[studyId]/payment-queries", method: "GET", params: (fx) => (data(fx), { studyId: fx.study.id }), allow: [...readers], allowSiteB: ["site_finance"] },

@@ -30,6 +30,11 @@ export function RunActions({ runId, state, contentHash, canApprove, isPreparer, 
         </button>
       )}
       {state === "prepared" && isPreparer && <p className="text-sm">You prepared this run. A different sponsor finance person must approve it.</p>}
+      {state === "prepared" && canSend && (
+        <button type="button" className="btn-secondary" disabled={busy} onClick={() => call("cancel")}>
+          Cancel run (its lines become due again)
+        </button>
+      )}
       {state === "approved" && canSend && (
         <button type="button" className="btn" disabled={busy} onClick={() => call("send")}>
           Send payments
