@@ -45,6 +45,7 @@ export function SiteLedger({ studyId, siteId }: { studyId: string; siteId: strin
   const [state, setState] = useState("");
   const [text, setText] = useState("");
   const [grouped, setGrouped] = useState(true);
+  const [period, setPeriod] = useState({ from: "", to: "" });
   const [sort, setSort] = useState<{ key: SortKey; dir: 1 | -1 }>({ key: "triggerDate", dir: 1 });
   const [open, setOpen] = useState<string | null>(null);
 
@@ -61,7 +62,11 @@ export function SiteLedger({ studyId, siteId }: { studyId: string; siteId: strin
   if (error || !data) return <p role="alert">Could not load the ledger: {(error as Error)?.message}</p>;
   const cur = data.site.currency;
   const groups = grouped ? cycles.filter((c) => lines.some((l) => l.cycle.label === c)).map((c) => ({ label: c, lines: lines.filter((l) => l.cycle.label === c) })) : [{ label: "", lines }];
-  const statementQs = (format: string) => new URLSearchParams({ format, ...(cycle ? { cycle } : {}) }).toString();
+  // A statement covers the chosen period when one is given, else the cycle filtered on (or everything).
+  const byPeriod = Boolean(period.from || period.to);
+  const statementQs = (format: string) =>
+    new URLSearchParams({ format, ...(byPeriod ? { ...(period.from ? { from: period.from } : {}), ...(period.to ? { to: period.to } : {}) } : cycle ? { cycle } : {}) }).toString();
+  const statementLabel = byPeriod ? ` ${period.from || "start"} to ${period.to || "today"}` : cycle ? ` ${cycle}` : "";
   const th = (key: SortKey, label: string, right = false) => (
     <th className={right ? "text-right" : undefined} aria-sort={sort.key === key ? (sort.dir === 1 ? "ascending" : "descending") : undefined}>
       <button type="button" className="font-semibold" onClick={() => setSort({ key, dir: sort.key === key ? (sort.dir === 1 ? -1 : 1) : 1 })}>
@@ -126,14 +131,23 @@ export function SiteLedger({ studyId, siteId }: { studyId: string; siteId: strin
         <label className="flex items-center gap-2 text-sm">
           <input type="checkbox" checked={grouped} onChange={(e) => setGrouped(e.target.checked)} /> Group by cycle
         </label>
-        <span className="ml-auto flex gap-2">
+        <fieldset className="ml-auto flex items-end gap-2">
+          <legend className="sr-only">Statement period (optional)</legend>
+          <label className="field">
+            <span>Statement from</span>
+            <input className="input" type="date" value={period.from} onChange={(e) => setPeriod({ ...period, from: e.target.value })} />
+          </label>
+          <label className="field">
+            <span>to</span>
+            <input className="input" type="date" value={period.to} onChange={(e) => setPeriod({ ...period, to: e.target.value })} />
+          </label>
           <a className="btn-secondary" href={`/api/v1/sites/${siteId}/statement?${statementQs("csv")}`} download data-testid="statement-csv">
-            Statement (CSV){cycle ? ` ${cycle}` : ""}
+            Statement (CSV){statementLabel}
           </a>
           <a className="btn-secondary" href={`/api/v1/sites/${siteId}/statement?${statementQs("pdf")}`} download>
-            Statement (PDF){cycle ? ` ${cycle}` : ""}
+            Statement (PDF){statementLabel}
           </a>
-        </span>
+        </fieldset>
       </div>
       <p className="text-sm text-muted">
         As of {data.asOf} (site&apos;s local date). Amounts in {cur}. {lines.length} of {data.lines.length} lines shown.
