@@ -29,6 +29,9 @@ export async function checkBinderUpload(tx: Tx, { studyId, siteId, binder }: { s
   }
   let expiresOn = type.expires ? binder.expiresOn : null;
   if (type.expires && !expiresOn && binder.issuedOn && type.validityMonths) expiresOn = proposedExpiry(binder.issuedOn, type.validityMonths);
-  if (type.expires && !expiresOn) throw unprocessable(`${type.name} expires: give its expiry date (or its issue date).`, { expiresOn: ["Give the expiry date"] });
+  if (type.expires && !expiresOn) {
+    const orIssue = type.validityMonths ? ` (or its issue date: it is usually valid ${type.validityMonths} months)` : "";
+    throw unprocessable(`${type.name} expires: give its expiry date${orIssue}.`, { expiresOn: ["Give the expiry date"] });
+  }
   return { documentTypeId: type.id, personId, issuedOn: binder.issuedOn, expiresOn, reviewState: "awaiting_review", purpose: type.code };
 }
