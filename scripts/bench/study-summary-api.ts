@@ -70,7 +70,7 @@ try {
   studyId = study!.id;
   userId = user!.id;
   await db.insert(schema.memberships).values({ userId: user!.id, studyId: study!.id, siteId: null, role: "sponsor_finance" });
-  const [pv] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "1.0", state: "released", title: "Plan", content: {}, authorId: user!.id }).returning();
+  const [pv] = await db.insert(schema.protocolVersions).values({ studyId: study!.id, versionLabel: "1.0", state: "released", title: "Plan", content: {}, contentHash: "0".repeat(64), authorId: user!.id }).returning();
   const sites = snap.sites;
   await bulk(
     "sites",

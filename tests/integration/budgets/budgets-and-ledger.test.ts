@@ -45,7 +45,7 @@ const budgetV1 = {
 async function protocolVersion(label: string) {
   const [v] = await db
     .insert(protocolVersions)
-    .values({ studyId: fx.study.id, versionLabel: label, title: `Protocol ${label}`, content: { type: "doc", content: [] }, state: "released", authorId: fx.userByRole.protocol_writer.id })
+    .values({ studyId: fx.study.id, versionLabel: label, title: `Protocol ${label}`, content: { type: "doc", content: [] }, state: "released", contentHash: "0".repeat(64), authorId: fx.userByRole.protocol_writer.id })
     .returning();
   return v!.id;
 }
