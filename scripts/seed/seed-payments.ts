@@ -1,7 +1,8 @@
 // Demo payments of KESTREL-VP through the local Stripe fake: a connected account per site (ES01
-// still pending), run 1 paid to DE01, NL01, GB01 and JP01 (DE01 and GB01 confirmed, JP01 waiting
-// for confirmation, NL01 with an open query), run 2 to CH01 failed and its lines re-sent and paid
-// in run 3, and run 4 to US01 prepared and awaiting a second approver. SE01 is left for the demo.
+// still pending), run 1 paid to the sites with lines due (DE01 and GB01 confirmed, JP01 waiting
+// for confirmation with an open query), run 2 to CH01 failed and its lines re-sent and paid in
+// run 3, and run 4 to US01 prepared and awaiting a second approver. Paid lines are recorded in
+// payments_recorded (reference "cairn-transfer:<id>") as the app does.
 // Every figure is invented. Runs without the app (plain tsx), so it writes rows directly.
 import Stripe from "stripe";
 import { and, eq, inArray } from "drizzle-orm";
@@ -26,7 +27,7 @@ import {
   visitRecords,
 } from "../../src/server/db/schema";
 import { buildSnapshot } from "../../src/lib/ledger/build-snapshot";
-import { computePaymentSchedule, type EarnedLine } from "../../src/lib/payment-schedule";
+import { computePaymentSchedule, localDate, type EarnedLine } from "../../src/lib/payment-schedule";
 import { groupBySiteAndCurrency, hashRunContent, transferIdempotencyKey } from "../../src/lib/payments/run-hash";
 import { toStripeAmount } from "../../src/lib/payments/stripe-amount";
 import { payeeStateOf } from "../../src/server/payments/payee-state";
@@ -103,13 +104,22 @@ export async function seedPayments({ db, log }: SeedContext) {
     return open.filter((l) => l.cycle.label === next);
   };
 
+  const describe = (l: EarnedLine) => {
+    const who = l.source.subjectCode ? ` ${l.source.subjectCode}` : "";
+    if (l.source.description) return l.source.description;
+    if (l.kind === "visit") return `Visit ${l.source.visitCode ?? ""}${who}`;
+    if (l.kind === "milestone") return `Milestone ${(l.source.milestone ?? "").replaceAll("_", " ")}${l.source.n ? ` (${l.source.n})` : ""}`;
+    if (l.kind === "startup") return "Start-up fee";
+    if (l.kind === "screen_failure") return `Screen failure${who}`;
+    return l.kind.replaceAll("_", " ");
+  };
   let number = 0;
   const makeRun = async (lines: EarnedLine[], state: "prepared" | "approved", preparedBy: string, approvedBy: string | null, preparedAt: Date) => {
     number += 1;
     const [run] = await db.insert(paymentRuns).values({ studyId: study.id, number, contentHash: "pending", lineCount: lines.length, preparedBy, preparedAt, note: "Demo run" }).returning();
     const frozen = lines.map((l) => ({ lineKey: l.key, siteId: l.siteId, currency: l.currency, amountMinor: l.outstandingMinor }));
     await db.insert(paymentRunLines).values(
-      lines.map((l) => ({ runId: run!.id, studyId: study.id, siteId: l.siteId, currency: l.currency, lineKey: l.key, kind: l.kind, description: l.source.description ?? `${l.kind.replace("_", " ")}${l.source.visitCode ? ` ${l.source.visitCode}` : ""}${l.source.subjectCode ? ` ${l.source.subjectCode}` : ""}`, serviceDate: l.serviceDate, dueDate: l.dueDate, cycle: l.cycle.label, amountMinor: l.outstandingMinor })),
+      lines.map((l) => ({ runId: run!.id, studyId: study.id, siteId: l.siteId, currency: l.currency, lineKey: l.key, kind: l.kind, description: describe(l), serviceDate: l.serviceDate, dueDate: l.dueDate, cycle: l.cycle.label, amountMinor: l.outstandingMinor })),
     );
     await db.update(paymentRuns).set({ contentHash: hashRunContent(run!.id, frozen), ...(state === "approved" ? { state, approvedBy, approvedAt: new Date(preparedAt.getTime() + 3_600_000) } : {}) }).where(eq(paymentRuns.id, run!.id));
     return { run: run!, frozen };
@@ -129,15 +139,17 @@ export async function seedPayments({ db, log }: SeedContext) {
       );
       // Stripe's transfer.created event confirms it: paid.
       const [paid] = await db.update(paymentTransfers).set({ stripeTransferId: tr.id, state: "paid", sentAt: at, paidAt: at }).where(eq(paymentTransfers.id, t!.id)).returning();
-      await db.update(paymentRunLines).set({ transferId: t!.id, state: "paid" }).where(and(eq(paymentRunLines.runId, run.id), eq(paymentRunLines.siteId, g.siteId), eq(paymentRunLines.currency, g.currency)));
+      const paidLines = await db.update(paymentRunLines).set({ transferId: t!.id, state: "paid" }).where(and(eq(paymentRunLines.runId, run.id), eq(paymentRunLines.siteId, g.siteId), eq(paymentRunLines.currency, g.currency))).returning();
+      const zone = siteRows.find((x) => x.id === g.siteId)?.timeZone ?? "UTC";
+      await db.insert(paymentsRecorded).values(paidLines.map((l) => ({ studyId: study.id, siteId: g.siteId, lineKey: l.lineKey, amountMinor: l.amountMinor, paidOn: localDate(at.toISOString(), zone), reference: `cairn-transfer:${t!.id}`, recordedBy: preparer.id })));
       out.push(paid!);
     }
     await db.update(paymentRuns).set({ state: "sent" }).where(eq(paymentRuns.id, run.id));
     return out;
   };
 
-  // Run 1: DE01, NL01, GB01, JP01.
-  const run1 = await makeRun(["DE01", "NL01", "GB01", "JP01"].flatMap(dueAt), "approved", preparer.id, approver.id, new Date("2026-11-09T09:00:00Z"));
+  // Run 1: the sites with lines due (CH01 and US01 have their own runs below, ES01 is not verified).
+  const run1 = await makeRun(["DE01", "NL01", "GB01", "JP01"].flatMap((c) => dueAt(c).filter((l) => l.dueDate <= DEMO_TODAY)), "approved", preparer.id, approver.id, new Date("2026-11-09T09:00:00Z"));
   const paid1 = await send(run1, new Date("2026-11-10T10:00:00Z"));
   const t = (code: string) => paid1.find((p) => p.siteId === byCode.get(code)?.id);
   for (const [code, receivedOn, ref] of [
@@ -148,11 +160,11 @@ export async function seedPayments({ db, log }: SeedContext) {
     const fin = byCode.get(code) && (await financeOf(byCode.get(code)!.id));
     if (tr && fin) await db.insert(paymentConfirmations).values({ transferId: tr.id, studyId: study.id, siteId: tr.siteId, receivedOn, amountMinor: tr.amountMinor, bankReference: ref, confirmedBy: fin.id });
   }
-  const nl = t("NL01");
-  const nlFinance = byCode.get("NL01") && (await financeOf(byCode.get("NL01")!.id));
-  if (nl && nlFinance) {
-    const [q] = await db.insert(paymentQueries).values({ studyId: study.id, siteId: nl.siteId, transferId: nl.id, subject: "Which visits does this payment cover?", raisedBy: nlFinance.id }).returning();
-    await db.insert(paymentQueryMessages).values({ queryId: q!.id, authorId: nlFinance.id, side: "site", body: "Our statement shows one amount. Please confirm which subject visits it covers so we can book it." });
+  const jp = t("JP01");
+  const jpFinance = byCode.get("JP01") && (await financeOf(byCode.get("JP01")!.id));
+  if (jp && jpFinance) {
+    const [q] = await db.insert(paymentQueries).values({ studyId: study.id, siteId: jp.siteId, transferId: jp.id, subject: "Which visits does this payment cover?", raisedBy: jpFinance.id }).returning();
+    await db.insert(paymentQueryMessages).values({ queryId: q!.id, authorId: jpFinance.id, side: "site", body: "Our statement shows one amount. Please confirm which subject visits it covers so we can book it." });
   }
 
   // Run 2: CH01, failed after creation (account closed); run 3 re-sends the same lines and is paid.
@@ -165,6 +177,7 @@ export async function seedPayments({ db, log }: SeedContext) {
       const reason = "Transfer failed: The destination bank account was closed.";
       await db.update(paymentTransfers).set({ state: "failed", failedAt: new Date("2026-11-18T08:00:00Z"), failureCode: "account_closed", failureMessage: "The destination bank account was closed." }).where(eq(paymentTransfers.id, sent2.id));
       await db.update(paymentRunLines).set({ state: "failed", stateReason: reason }).where(eq(paymentRunLines.transferId, sent2.id));
+      await db.delete(paymentsRecorded).where(eq(paymentsRecorded.reference, `cairn-transfer:${sent2.id}`));
       const run3 = await makeRun(chLines, "approved", preparer.id, approver.id, new Date("2026-11-23T09:00:00Z"));
       await send(run3, new Date("2026-11-24T10:00:00Z"));
     }
@@ -173,5 +186,5 @@ export async function seedPayments({ db, log }: SeedContext) {
   // Run 4: US01, prepared by the second officer, waiting for the first to approve it.
   const usLines = dueAt("US01");
   if (usLines.length) await makeRun(usLines, "prepared", approver.id, null, new Date("2026-11-30T15:00:00Z"));
-  log(`payments: ${accounts.length} payee accounts, ${number} runs (CH01 failed and re-sent, NL01 query open, US01 awaiting approval)`);
+  log(`payments: ${accounts.length} payee accounts, ${number} runs (CH01 failed and re-sent, JP01 query open, US01 awaiting approval)`);
 }

@@ -21,6 +21,8 @@ export interface ReconTransfer {
   paidOn: string | null;
   confirmation: { amountMinor: bigint; receivedOn: string } | null;
   openQueries: number;
+  /** A failed or reversed transfer whose lines are already in a new run: no longer counted as failed. */
+  resent?: boolean;
 }
 
 export interface ReconQuery {
@@ -129,7 +131,7 @@ export function reconcile(input: ReconInput): ReconRow[] {
           r.aging[b].amountMinor += t.amountMinor;
         }
       }
-    } else r.failedMinor += t.amountMinor;
+    } else if (!t.resent) r.failedMinor += t.amountMinor;
   }
   for (const p of input.paidElsewhere ?? []) row(p.siteId, p.currency).paidElsewhereMinor += p.amountMinor;
   for (const q of input.queries) if (q.state !== "resolved") row(q.siteId, q.currency).queriedMinor += q.amountMinor;

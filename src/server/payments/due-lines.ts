@@ -1,37 +1,30 @@
 import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
-import { paymentRunLines, paymentTransfers, sites } from "@/server/db/schema";
+import { paymentRunLines } from "@/server/db/schema";
 import { loadScheduleSnapshot } from "@/server/ledger/load-snapshot";
-import { computePaymentSchedule, localDate, type EarnedLine, type PaymentSchedule } from "@/lib/payment-schedule";
+import { computePaymentSchedule, type EarnedLine, type PaymentSchedule } from "@/lib/payment-schedule";
 
 // The schedule as payments see it: the ledger's snapshot, plus what Cairn's own runs have paid
 // (lines paid by a transfer count as payments of the line) and the lines frozen in live runs.
 
 /**
- * What Cairn's own runs add to the engine's input: lines paid by a transfer (as payments of the
- * line) and lines frozen in a live run. The ledger loader can add these to its snapshot too.
+ * Lines frozen in a live run and not yet paid: the engine marks them "in a payment run". Paid run
+ * lines need nothing here: they are recorded in payments_recorded, which every loader reads.
  */
-export async function runPaymentsForSnapshot(tx: Tx, { studyId, siteIds }: { studyId: string; siteIds: readonly string[] }) {
-  const live = siteIds.length
-    ? await tx
-        .select({ lineKey: paymentRunLines.lineKey, state: paymentRunLines.state, amountMinor: paymentRunLines.amountMinor, paidAt: paymentTransfers.paidAt, timeZone: sites.timeZone })
-        .from(paymentRunLines)
-        .innerJoin(sites, eq(sites.id, paymentRunLines.siteId))
-        .leftJoin(paymentTransfers, eq(paymentTransfers.id, paymentRunLines.transferId))
-        .where(and(eq(paymentRunLines.studyId, studyId), inArray(paymentRunLines.siteId, [...siteIds]), inArray(paymentRunLines.state, ["in_run", "sent", "paid"])))
-    : [];
-  return {
-    payments: live.filter((l) => l.state === "paid").map((l) => ({ lineKey: l.lineKey, amountMinor: l.amountMinor, paidOn: localDate((l.paidAt ?? new Date()).toISOString(), l.timeZone) })),
-    inPaymentRun: live.filter((l) => l.state !== "paid").map((l) => l.lineKey),
-  };
+export async function linesInLiveRuns(tx: Tx, { studyId, siteIds }: { studyId: string; siteIds: readonly string[] }): Promise<string[]> {
+  if (siteIds.length === 0) return [];
+  const rows = await tx
+    .select({ lineKey: paymentRunLines.lineKey })
+    .from(paymentRunLines)
+    .where(and(eq(paymentRunLines.studyId, studyId), inArray(paymentRunLines.siteId, [...siteIds]), inArray(paymentRunLines.state, ["in_run", "sent"])));
+  return rows.map((r) => r.lineKey);
 }
 
 export async function loadPaymentSchedule(tx: Tx, { studyId, siteIds, asOf }: { studyId: string; siteIds: "all" | string[]; asOf: string }) {
   const loaded = await loadScheduleSnapshot(tx, { studyId, siteIds, asOf });
-  const runs = await runPaymentsForSnapshot(tx, { studyId, siteIds: loaded.sites.map((s) => s.id) });
-  const snapshot = { ...loaded.snapshot, payments: [...(loaded.snapshot.payments ?? []), ...runs.payments], inPaymentRun: runs.inPaymentRun };
-  const schedule: PaymentSchedule = computePaymentSchedule(snapshot);
+  const inPaymentRun = await linesInLiveRuns(tx, { studyId, siteIds: loaded.sites.map((s) => s.id) });
+  const schedule: PaymentSchedule = computePaymentSchedule({ ...loaded.snapshot, inPaymentRun });
   return { ...loaded, schedule };
 }
 

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, inArray, isNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNull, notLike, sql } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { paymentConfirmations, paymentQueries, paymentRunLines, paymentRuns, paymentsRecorded, paymentTransfers, sites } from "@/server/db/schema";
 import { localDate } from "@/lib/payment-schedule";
@@ -51,7 +51,15 @@ export async function getReconciliation(tx: Tx, { studyId, siteIds, asOf }: { st
       .select({ siteId: paymentQueries.siteId, state: paymentQueries.state, transferId: paymentQueries.transferId, lineKey: paymentQueries.lineKey })
       .from(paymentQueries)
       .where(and(eq(paymentQueries.studyId, studyId), inIds(paymentQueries.siteId)));
-  const recorded = await tx.select({ siteId: paymentsRecorded.siteId, amountMinor: paymentsRecorded.amountMinor }).from(paymentsRecorded).where(and(eq(paymentsRecorded.studyId, studyId), inIds(paymentsRecorded.siteId)));
+  const recorded = await tx.select({ siteId: paymentsRecorded.siteId, amountMinor: paymentsRecorded.amountMinor }).from(paymentsRecorded).where(and(eq(paymentsRecorded.studyId, studyId), inIds(paymentsRecorded.siteId), notLike(paymentsRecorded.reference, "cairn-transfer:%")));
+  const failedIds = payments.filter((p) => p.state === "failed" || p.state === "reversed").map((p) => p.id);
+  const resent = new Set<string>();
+  if (failedIds.length) {
+    const rows = await tx.execute<{ id: string }>(
+      sql`select distinct l1.transfer_id as id from payment_run_lines l1 join payment_run_lines l2 on l2.site_id = l1.site_id and l2.line_key = l1.line_key and l2.state in ('in_run', 'sent', 'paid') where l1.transfer_id in (${sql.join(failedIds.map((i) => sql`${i}::uuid`), sql`, `)})`,
+    );
+    for (const r of rows.rows) resent.add(r.id);
+  }
   const siteOf = new Map(siteRows.map((s) => [s.id, s]));
   const todayBySite = new Map(siteRows.map((s) => [s.id, localDate(asOf, s.timeZone)]));
   const lineAmount = new Map<string, bigint>(schedule.lines.map((l) => [`${l.siteId}|${l.key}`, l.netMinor]));
@@ -64,6 +72,7 @@ export async function getReconciliation(tx: Tx, { studyId, siteIds, asOf }: { st
     paidOn: p.paidAt ? localDate(p.paidAt.toISOString(), siteOf.get(p.siteId)?.timeZone ?? "UTC") : null,
     confirmation: p.confirmedMinor != null && p.confirmedOn ? { amountMinor: p.confirmedMinor, receivedOn: p.confirmedOn } : null,
     openQueries: queries.filter((q) => q.transferId === p.id && q.state !== "resolved").length,
+    resent: resent.has(p.id),
   }));
   const rows = reconcile({
     todayBySite,
@@ -78,5 +87,5 @@ export async function getReconciliation(tx: Tx, { studyId, siteIds, asOf }: { st
     }),
     paidElsewhere: recorded.map((r) => ({ siteId: r.siteId, currency: siteOf.get(r.siteId)?.currency ?? "EUR", amountMinor: r.amountMinor })),
   });
-  return { asOf, sites: siteRows, rows, payments };
+  return { asOf, sites: siteRows, rows, payments: payments.map((p) => ({ ...p, resent: resent.has(p.id) })) };
 }

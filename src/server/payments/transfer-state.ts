@@ -1,9 +1,10 @@
 import "server-only";
 import { and, eq, inArray, ne, sql } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
-import { paymentRunLines, paymentRuns, paymentTransfers, type PaymentTransferRow } from "@/server/db/schema";
+import { paymentRunLines, paymentRuns, paymentsRecorded, paymentTransfers, sites, type PaymentTransferRow } from "@/server/db/schema";
 import { recordAudit } from "@/server/audit/record-audit";
 import { lineStateFor, nextTransferState, type TransferState } from "@/lib/payments/states";
+import { localDate } from "@/lib/payment-schedule";
 import { enqueueRemittanceMail, enqueueFailureMail } from "./remittance";
 
 /**
@@ -48,6 +49,7 @@ export async function observeTransferState(
     .update(paymentRunLines)
     .set({ state: lineStateFor(next), stateReason: reason, updatedAt: now })
     .where(and(eq(paymentRunLines.transferId, t.id), inArray(paymentRunLines.state, ["in_run", "sent", "paid"])));
+  await syncRecordedPayments(tx, after!, next);
   await recordAudit(tx, null, {
     action: `payment.transfer.${next}`,
     entityType: "payment_transfer",
@@ -66,4 +68,24 @@ export async function observeTransferState(
     .where(and(eq(paymentTransfers.runId, t.runId), inArray(paymentTransfers.state, ["queued", "sending"])));
   if (waiting === 0) await tx.update(paymentRuns).set({ state: "sent" }).where(and(eq(paymentRuns.id, t.runId), ne(paymentRuns.state, "sent"), eq(paymentRuns.state, "sending")));
   return { changed: true, transfer: after! };
+}
+
+/** The reference under which a transfer's lines are recorded as paid. */
+export const recordedPaymentReference = (transferId: string) => `cairn-transfer:${transferId}`;
+
+/**
+ * The schedule reads paid lines from payments_recorded: a paid transfer records each of its lines
+ * there (dated in the site's zone); a failure or reversal takes them out again, so the lines are due.
+ */
+async function syncRecordedPayments(tx: Tx, t: PaymentTransferRow, state: TransferState) {
+  const reference = recordedPaymentReference(t.id);
+  if (state === "failed" || state === "reversed") {
+    await tx.delete(paymentsRecorded).where(eq(paymentsRecorded.reference, reference));
+    return;
+  }
+  if (state !== "paid") return;
+  const [site] = await tx.select({ timeZone: sites.timeZone }).from(sites).where(eq(sites.id, t.siteId)).limit(1);
+  const paidOn = localDate((t.paidAt ?? new Date()).toISOString(), site?.timeZone ?? "UTC");
+  const lines = await tx.select().from(paymentRunLines).where(eq(paymentRunLines.transferId, t.id));
+  if (lines.length) await tx.insert(paymentsRecorded).values(lines.map((l) => ({ studyId: t.studyId, siteId: t.siteId, lineKey: l.lineKey, amountMinor: l.amountMinor, paidOn, reference })));
 }

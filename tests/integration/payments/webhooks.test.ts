@@ -5,7 +5,7 @@ import { NextRequest } from "next/server";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { count, eq } from "drizzle-orm";
 import { db } from "@/server/db/client";
-import { auditEvents, outboxMessages, paymentRunLines, stripeEvents } from "@/server/db/schema";
+import { auditEvents, outboxMessages, paymentRunLines, paymentsRecorded, stripeEvents } from "@/server/db/schema";
 import { sendQueuedTransfers } from "@/server/payments/send-transfers";
 import { requestSendPaymentRun } from "@/server/payments/runs";
 import { POST as webhookPost } from "@/app/api/v1/webhooks/stripe/route";
@@ -68,6 +68,10 @@ describe("Stripe webhooks", () => {
     const mails = await db.select().from(outboxMessages);
     expect(mails.filter((m) => m.dedupeKey.startsWith(`remittance:${t!.id}:`))).toHaveLength(1); // site A has one finance person
     expect(pf.bridge.statuses.every((s) => s === 200)).toBe(true);
+    // The schedule reads paid lines from payments_recorded: each line once, at its frozen amount.
+    const recorded = await db.select().from(paymentsRecorded).where(eq(paymentsRecorded.reference, `cairn-transfer:${t!.id}`));
+    const lines = await db.select().from(paymentRunLines).where(eq(paymentRunLines.transferId, t!.id));
+    expect(recorded.map((r) => [r.lineKey, r.amountMinor]).sort()).toEqual(lines.map((l) => [l.lineKey, l.amountMinor]).sort());
   });
 
   it("ends failed when the failure arrives before the creation event", async () => {
@@ -100,5 +104,7 @@ describe("Stripe webhooks", () => {
     expect(after!.state).toBe("reversed");
     const lines = await db.select().from(paymentRunLines).where(eq(paymentRunLines.runId, run.id));
     expect(lines.every((l) => l.state === "reversed")).toBe(true);
+    // Paid, then reversed: the recorded payments are taken out again, so the lines are due.
+    expect(await db.select().from(paymentsRecorded).where(eq(paymentsRecorded.reference, `cairn-transfer:${t!.id}`))).toHaveLength(0);
   });
 });

@@ -37,6 +37,12 @@ describe("reconciliation rows", () => {
     expect(r!.aging["61–90 days"]).toEqual({ count: 1, amountMinor: 50_00n });
   });
 
+  it("stops counting a failed payment once its lines are re-sent", () => {
+    const failed = { id: "t3", siteId: "A", currency: "EUR", amountMinor: 30_00n, state: "failed" as const, paidOn: null, confirmation: null, openQueries: 0 };
+    expect(reconcile({ ...base, transfers: [failed] })[0]!.failedMinor).toBe(30_00n);
+    expect(reconcile({ ...base, transfers: [{ ...failed, resent: true }] })[0]!.failedMinor).toBe(0n);
+  });
+
   it("shows the difference when the bank shows another amount", () => {
     const [r] = reconcile({
       ...base,

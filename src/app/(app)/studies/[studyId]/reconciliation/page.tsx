@@ -20,6 +20,7 @@ const FIGURES: [keyof ReconRow, string][] = [
   ["notYetPaidMinor", "Not yet paid"],
   ["inRunMinor", "In a run"],
   ["sentMinor", "Sent"],
+  ["paidElsewhereMinor", "Paid outside runs"],
   ["paidMinor", "Paid"],
   ["confirmedMinor", "Confirmed"],
   ["awaitingConfirmationMinor", "Awaiting confirmation"],
@@ -132,6 +133,7 @@ export default async function ReconciliationPage({ params }: { params: Promise<{
                       <td>Run {p.runNumber}</td>
                       <td>
                         <PaymentChip table={transferStateLabels} state={p.state} /> {p.failureMessage && <span className="text-xs text-muted">{p.failureMessage}</span>}
+                        {p.resent && <span className="text-xs text-muted"> Lines re-sent in a later run.</span>}
                       </td>
                       <td className="amount">{formatMinor(p.amountMinor, p.currency)}</td>
                       <td>{p.paidAt ? p.paidAt.toISOString().slice(0, 10) : "—"}</td>

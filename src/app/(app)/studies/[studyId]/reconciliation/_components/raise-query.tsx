@@ -13,7 +13,7 @@ export function RaiseQuery({ siteId, transferId, lineKey, label = "Raise a query
   const [error, setError] = useState<string | null>(null);
   if (!open)
     return (
-      <button type="button" className="btn-secondary" onClick={() => setOpen(true)}>
+      <button type="button" className={lineKey ? "text-xs underline" : "btn-secondary"} onClick={() => setOpen(true)}>
         {label}
       </button>
     );
