@@ -3,13 +3,13 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { eq } from "drizzle-orm";
-import { users } from "@/server/db/schema";
+import { protocolVersions, users } from "@/server/db/schema";
 import { hashPassword } from "@/server/auth/password";
 import { createStudyFixture, db, type StudyFixture } from "../support/db";
 import { baseSchedule, insertVersion } from "../integration/protocol/protocol-fixture";
 import { SignInPage } from "./pages/sign-in-page";
 import { ProtocolPages } from "./pages/protocol-pages";
-import { launchBrowser, newPage } from "./support";
+import { appUrl, launchBrowser, newPage } from "./support";
 
 const password = "protocol-browser-test-2026";
 let fx: StudyFixture;
@@ -149,6 +149,42 @@ describe("stored hostile content renders inert", () => {
       const attrs = await article.evaluate((el) => [...el.querySelectorAll("*")].flatMap((n) => [...n.attributes].map((a) => `${a.name}=${a.value}`)));
       expect(attrs.filter((a) => /^on|javascript:/i.test(a) || /^style=.*javascript/i.test(a))).toEqual([]);
       expect(await article.textContent()).toContain("<script>window.__xss=1</script>");
+    } finally {
+      await b.close();
+    }
+  });
+});
+
+describe("two tabs editing the same draft", () => {
+  it("the second save gets the conflict view with the other change; nothing is overwritten until the writer chooses", async () => {
+    const draft = await insertVersion(fx, { label: "7.0", state: "draft", parentId: v1Id, content: v1Content });
+    const b = await launchBrowser();
+    try {
+      const first = await newPage(b.context);
+      await new SignInPage(first).signInAndWaitForHome(fx.userByRole.protocol_writer.email, password);
+      const second = await newPage(b.context);
+      const url = `${appUrl()}/studies/${fx.study.id}/protocol/${draft.id}/edit`;
+      await first.goto(url);
+      await second.goto(url);
+      const a = new ProtocolPages(first);
+      const c = new ProtocolPages(second);
+      await a.editor().waitFor();
+      await c.editor().waitFor();
+      await a.typeAfter("24 months after implantation.", " Alpha edit.");
+      await a.waitSaved();
+      await c.typeAfter("24 months after implantation.", " Beta edit.");
+      await second.getByTestId("conflict").waitFor({ timeout: 20_000 });
+      expect(await c.saveState()).toBe("conflict");
+      // The other person's text is shown against ours.
+      expect(await second.locator('[data-testid="conflict"] del').allTextContents()).toContain("Alpha");
+      expect(await second.locator('[data-testid="conflict"] ins').allTextContents()).toContain("Beta");
+      const stored = await db.select().from(protocolVersions).where(eq(protocolVersions.id, draft.id));
+      expect(JSON.stringify(stored[0]!.content)).toContain("Alpha edit.");
+      expect(JSON.stringify(stored[0]!.content)).not.toContain("Beta edit.");
+      await second.getByRole("button", { name: "Use their version (discard mine)" }).click();
+      await c.waitSaved();
+      expect(await c.editor().textContent()).toContain("Alpha edit.");
+      expect(await c.editor().textContent()).not.toContain("Beta edit.");
     } finally {
       await b.close();
     }
