@@ -30,6 +30,8 @@ export async function seedAcknowledgements({ db, log }: SeedContext) {
 
   let signed = 0;
   let requested = 0;
+  // Audit events are written at the end in time order, so the trail reads chronologically.
+  const audit: (typeof auditEvents.$inferInsert)[] = [];
   const ask = async (version: typeof v1, inv: (typeof investigators)[number], requestedAt: Date, reason: "release" | "joined", compareTo: string | null, signAfterDays: number | null) => {
     const dueOn = acknowledgementDueOn(requestedAt, inv.site.timeZone, study.ackDeadlineDays);
     const [req] = await db
@@ -37,7 +39,7 @@ export async function seedAcknowledgements({ db, log }: SeedContext) {
       .values({ studyId: study.id, siteId: inv.site.id, versionId: version.id, userId: inv.user.id, reason, compareToVersionId: compareTo, requestedAt, dueOn })
       .returning();
     requested++;
-    await db.insert(auditEvents).values({ at: requestedAt, actorName: "system", action: "acknowledgement.requested", entityType: "acknowledgement_request", entityId: req!.id, studyId: study.id, siteId: inv.site.id, after: { versionId: version.id, versionLabel: version.versionLabel, userId: inv.user.id, reason, dueOn } });
+    audit.push({ at: requestedAt, actorName: "system", action: "acknowledgement.requested", entityType: "acknowledgement_request", entityId: req!.id, studyId: study.id, siteId: inv.site.id, after: { versionId: version.id, versionLabel: version.versionLabel, userId: inv.user.id, reason, dueOn } });
     if (signAfterDays === null) return;
     // Signed mid-morning site time-ish: a fixed offset into the day after the request.
     const signedAt = new Date(requestedAt.getTime() + signAfterDays * DAY + 2 * 3_600_000);
@@ -61,7 +63,7 @@ export async function seedAcknowledgements({ db, log }: SeedContext) {
         signedAtSiteLocal: formatSiteLocalTime(signedAt, inv.site.timeZone),
       })
       .returning();
-    await db.insert(auditEvents).values({ at: signedAt, actorId: inv.user.id, actorName: inv.user.name, action: "acknowledgement.signed", entityType: "electronic_signature", entityId: sig!.id, studyId: study.id, siteId: inv.site.id, after: sig });
+    audit.push({ at: signedAt, actorId: inv.user.id, actorName: inv.user.name, action: "acknowledgement.signed", entityType: "electronic_signature", entityId: sig!.id, studyId: study.id, siteId: inv.site.id, after: sig });
     signed++;
   };
 
@@ -76,5 +78,7 @@ export async function seedAcknowledgements({ db, log }: SeedContext) {
     if (code in v1Plan) await ask(v1, inv, v1.releasedAt, "release", null, v1Plan[code]!);
     if (code in v2Plan) await ask(v2, inv, v2.releasedAt, "release", code in v1Plan ? v1.id : null, v2Plan[code]!);
   }
+  audit.sort((a, b) => a.at!.getTime() - b.at!.getTime());
+  if (audit.length) await db.insert(auditEvents).values(audit);
   log(`acknowledgements: ${requested} requests, ${signed} signatures`);
 }

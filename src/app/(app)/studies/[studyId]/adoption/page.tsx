@@ -73,14 +73,14 @@ export default async function AdoptionPage({ params }: { params: Promise<{ study
           </tbody>
         </table>
       </section>
-      {recordable.length > 0 && matrix.versions.length > 0 && (
+      {recordable.length > 0 && recordable.some((s) => s.cells.some((c) => !c.approval)) && (
         <section className="card" aria-labelledby="record">
           <h2 id="record" className="mb-2">
             Record an ethics-committee approval
           </h2>
           <RecordApprovalForm
             studyId={studyId}
-            sites={recordable.map((s) => ({ id: s.siteId, code: s.siteCode, today: s.today }))}
+            sites={recordable.map((s) => ({ id: s.siteId, code: s.siteCode, today: s.today, open: s.cells.filter((c) => !c.approval).map((c) => c.versionId) }))}
             versions={matrix.versions.map((v) => ({ id: v.id, versionLabel: v.versionLabel }))}
             maxBytes={env.UPLOAD_MAX_BYTES}
           />

@@ -13,18 +13,24 @@ export function RecordApprovalForm({
   maxBytes,
 }: {
   studyId: string;
-  sites: { id: string; code: string; today: string }[];
+  /** `open`: versions not yet approved at the site. */
+  sites: { id: string; code: string; today: string; open: string[] }[];
   versions: { id: string; versionLabel: string }[];
   maxBytes: number;
 }) {
   const router = useRouter();
-  const [siteId, setSiteId] = useState(sites[0]?.id ?? "");
-  const [versionId, setVersionId] = useState(versions[0]?.id ?? "");
+  const firstSite = sites.find((s) => s.open.length) ?? sites[0];
+  const [siteId, setSiteId] = useState(firstSite?.id ?? "");
+  const openVersions = (id: string) => versions.filter((v) => sites.find((s) => s.id === id)?.open.includes(v.id));
+  const [versionId, setVersionId] = useState(openVersions(firstSite?.id ?? "")[0]?.id ?? "");
   const [approvedOn, setApprovedOn] = useState("");
   const [letter, setLetter] = useState<{ id: string; fileName: string } | null>(null);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const today = sites.find((s) => s.id === siteId)?.today;
+  // After a refresh the recorded version leaves the list: fall back to the first one still open.
+  const options = openVersions(siteId);
+  const selected = options.some((v) => v.id === versionId) ? versionId : (options[0]?.id ?? "");
 
   async function submit(e: React.FormEvent) {
     e.preventDefault();
@@ -32,7 +38,7 @@ export function RecordApprovalForm({
     setBusy(true);
     setMessage(null);
     try {
-      await apiFetch(`/api/v1/studies/${studyId}/adoption`, { method: "POST", json: { siteId, versionId, approvedOn, letterDocumentId: letter.id } });
+      await apiFetch(`/api/v1/studies/${studyId}/adoption`, { method: "POST", json: { siteId, versionId: selected, approvedOn, letterDocumentId: letter.id } });
       setMessage({ ok: true, text: "Approval recorded." });
       setLetter(null);
       setApprovedOn("");
@@ -50,7 +56,11 @@ export function RecordApprovalForm({
       <div className="flex flex-wrap gap-3">
         <label className="field">
           <span>Site</span>
-          <select className="input" value={siteId} onChange={(e) => { setSiteId(e.target.value); setLetter(null); }}>
+          <select className="input" value={siteId} onChange={(e) => {
+              setSiteId(e.target.value);
+              setVersionId(openVersions(e.target.value)[0]?.id ?? "");
+              setLetter(null);
+            }}>
             {sites.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.code}
@@ -60,8 +70,8 @@ export function RecordApprovalForm({
         </label>
         <label className="field">
           <span>Protocol version</span>
-          <select className="input" value={versionId} onChange={(e) => setVersionId(e.target.value)}>
-            {versions.map((v) => (
+          <select className="input" value={selected} onChange={(e) => setVersionId(e.target.value)}>
+            {options.map((v) => (
               <option key={v.id} value={v.id}>
                 {v.versionLabel}
               </option>
@@ -90,7 +100,7 @@ export function RecordApprovalForm({
           {message.text}
         </p>
       )}
-      <button className="btn" type="submit" disabled={busy || !letter || !approvedOn}>
+      <button className="btn" type="submit" disabled={busy || !letter || !approvedOn || !selected}>
         {busy ? "Recording…" : "Record approval"}
       </button>
     </form>
