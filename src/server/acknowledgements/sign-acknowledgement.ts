@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, isNull } from "drizzle-orm";
 import { db, type Tx } from "@/server/db/client";
 import { recordAudit } from "@/server/audit/record-audit";
 import { acknowledgementRequests, electronicSignatures, memberships, protocolVersions, sites, studies, users } from "@/server/db/schema";
@@ -74,7 +74,7 @@ export async function signAcknowledgement(tx: Tx, actor: Actor, input: SignInput
   const [membership] = await tx
     .select({ role: memberships.role })
     .from(memberships)
-    .where(and(eq(memberships.userId, actor.userId), eq(memberships.siteId, site.id), eq(memberships.role, "investigator")));
+    .where(and(eq(memberships.userId, actor.userId), eq(memberships.siteId, site.id), eq(memberships.role, "investigator"), isNull(memberships.revokedAt)));
   if (!membership) throw new AppError("forbidden", "Only an investigator of this site may acknowledge for it.");
 
   const [signature] = await tx
