@@ -15,18 +15,19 @@ import { QueryThread } from "./_components/query-thread";
 
 export const metadata: Metadata = { title: "Reconciliation" };
 
-const FIGURES: [keyof ReconRow, string][] = [
-  ["earnedMinor", "Earned"],
-  ["notYetPaidMinor", "Not yet paid"],
-  ["inRunMinor", "In a run"],
-  ["sentMinor", "Sent"],
-  ["paidElsewhereMinor", "Paid outside runs"],
-  ["paidMinor", "Paid"],
-  ["confirmedMinor", "Confirmed"],
-  ["awaitingConfirmationMinor", "Awaiting confirmation"],
-  ["queriedMinor", "Queried"],
-  ["failedMinor", "Failed"],
-  ["differenceMinor", "Difference"],
+// [figure, column label, what it means]
+const FIGURES: [keyof ReconRow, string, string][] = [
+  ["earnedMinor", "Earned", "Net of holdback, as Cairn computes it"],
+  ["notYetPaidMinor", "Unpaid", "Earned and in no run"],
+  ["inRunMinor", "In run", "In a run not yet sent"],
+  ["sentMinor", "Sent", "Sent to Stripe, not yet confirmed by its event"],
+  ["paidElsewhereMinor", "Paid earlier", "Recorded as paid outside Cairn's runs"],
+  ["paidMinor", "Paid", "Paid through a run"],
+  ["confirmedMinor", "Confirmed", "Confirmed by the site as received"],
+  ["awaitingConfirmationMinor", "Unconfirmed", "Paid, not yet confirmed by the site"],
+  ["queriedMinor", "Queried", "Under an open query"],
+  ["failedMinor", "Failed", "Failed or reversed and not yet re-sent"],
+  ["differenceMinor", "Difference", "Confirmed minus paid"],
 ];
 
 function Figure({ row, k }: { row: ReconRow; k: keyof ReconRow }) {
@@ -48,8 +49,8 @@ function FiguresTable({ rows, siteCode, testId }: { rows: ReconRow[]; siteCode: 
           <tr>
             <th>Site</th>
             <th>Currency</th>
-            {FIGURES.map(([, l]) => (
-              <th key={l} className="text-right">
+            {FIGURES.map(([, l, title]) => (
+              <th key={l} className="text-right" title={title}>
                 {l}
               </th>
             ))}
@@ -58,7 +59,7 @@ function FiguresTable({ rows, siteCode, testId }: { rows: ReconRow[]; siteCode: 
         <tbody>
           {rows.map((r) => (
             <tr key={`${r.siteId}|${r.currency}`} data-site={siteCode(r.siteId)}>
-              <td className="font-mono">{siteCode(r.siteId)}</td>
+              <td className="whitespace-nowrap font-mono">{siteCode(r.siteId)}</td>
               <td>{r.currency}</td>
               {FIGURES.map(([k]) => (
                 <Figure key={k} row={r} k={k} />
@@ -93,7 +94,7 @@ export default async function ReconciliationPage({ params }: { params: Promise<{
       {studyWide && (
         <section className="space-y-2" aria-labelledby="study-heading">
           <h2 id="study-heading">Study-wide by site and currency</h2>
-          <FiguresTable rows={recon.rows} siteCode={siteCode} testId="recon-study" />
+          <FiguresTable rows={[...recon.rows].sort((a, b) => siteCode(a.siteId).localeCompare(siteCode(b.siteId)))} siteCode={siteCode} testId="recon-study" />
           <h3>Totals by currency</h3>
           <FiguresTable rows={totalsByCurrency(recon.rows)} siteCode={() => "All sites"} testId="recon-currency-totals" />
         </section>

@@ -102,9 +102,9 @@ export default async function PaymentRunPage({ params }: { params: Promise<{ stu
                   <td>
                     {l.description} <span className="font-mono text-xs text-muted">{l.lineKey}</span>
                   </td>
-                  <td>{l.serviceDate}</td>
-                  <td>{l.cycle}</td>
-                  <td>{l.dueDate}</td>
+                  <td className="whitespace-nowrap">{l.serviceDate}</td>
+                  <td className="whitespace-nowrap">{l.cycle}</td>
+                  <td className="whitespace-nowrap">{l.dueDate}</td>
                   <td>
                     <PaymentChip table={lineStateLabels} state={l.state} /> {l.stateReason && <span className="text-xs text-muted">{l.stateReason}</span>}
                   </td>

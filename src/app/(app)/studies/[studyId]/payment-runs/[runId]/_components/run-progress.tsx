@@ -41,7 +41,7 @@ export function RunProgress({ runId, initial }: { runId: string; initial: Transf
       <p className="text-sm" data-testid="send-progress">
         {done} of {transfers.length} settled
       </p>
-      <progress max={transfers.length} value={done} className="w-64" aria-label="Transfers settled" />
+      <progress max={transfers.length} value={done} className="w-64 accent-lichen" aria-label="Transfers settled" />
       <table className="table-dense" data-testid="run-transfers">
         <thead>
           <tr>
