@@ -3,7 +3,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type Stripe from "stripe";
 import type { Tx } from "@/server/db/client";
 import { payeeAccounts, sites, type PayeeAccountRow } from "@/server/db/schema";
-import { notFound, unprocessable } from "@/server/api/errors";
+import { AppError, notFound, unprocessable } from "@/server/api/errors";
 import { stripeClient } from "@/server/stripe/client";
 import { payeeStateOf } from "./payee-state";
 
@@ -37,7 +37,10 @@ export async function createOrRefreshPayeeAccount(
           { idempotencyKey: `cairn-account-${site.id}` },
         );
   } catch (err) {
-    throw unprocessable(`Stripe did not answer as expected: ${(err as Error).message}`);
+    const e = err as { type?: string; message?: string };
+    // Stripe unreachable or failing: try again later; Stripe refusing the request: say why.
+    if (e.type === "StripeConnectionError" || e.type === "StripeAPIError" || e.type === "StripeRateLimitError") throw new AppError("upstream_unavailable", `Stripe is not answering; try again shortly. (${e.message ?? ""})`);
+    throw unprocessable(`Stripe refused: ${e.message ?? String(err)}`);
   }
   const { state, reason } = payeeStateOf(account);
   if (existing) {

@@ -4,7 +4,7 @@ import type { Tx } from "@/server/db/client";
 import { payeeAccounts, paymentRunLines, paymentRuns, paymentTransfers, sites, users } from "@/server/db/schema";
 import { AppError, conflict, notFound, unprocessable } from "@/server/api/errors";
 import { groupBySiteAndCurrency, hashRunContent, transferIdempotencyKey } from "@/lib/payments/run-hash";
-import { toStripeAmount } from "@/lib/payments/stripe-amount";
+import { StripeAmountError, toStripeAmount } from "@/lib/payments/stripe-amount";
 import { listDueLines } from "./due-lines";
 
 export async function scopeOfRun(tx: Tx, runId: string) {
@@ -202,7 +202,7 @@ export async function requestSendPaymentRun(tx: Tx, { runId, actorId }: { runId:
     siteId: g.siteId,
     currency: g.currency,
     amountMinor: g.amountMinor,
-    stripeAmount: toStripeAmount(g.amountMinor, g.currency),
+    stripeAmount: stripeAmountOrRefuse(g.amountMinor, g.currency),
     destinationAccountId: accounts.find((a) => a.siteId === g.siteId)!.stripeAccountId,
     idempotencyKey: transferIdempotencyKey(runId, g.siteId, g.currency),
   }));
@@ -229,4 +229,13 @@ export async function cancelPaymentRun(tx: Tx, { runId, actorId }: { runId: stri
   const lines = await tx.delete(paymentRunLines).where(eq(paymentRunLines.runId, runId)).returning();
   const [after] = await tx.update(paymentRuns).set({ state: "cancelled", cancelledBy: actorId, cancelledAt: new Date() }).where(eq(paymentRuns.id, runId)).returning();
   return { before: run, after: after!, lines, changed: true };
+}
+
+function stripeAmountOrRefuse(amountMinor: bigint, currency: string): bigint {
+  try {
+    return toStripeAmount(amountMinor, currency);
+  } catch (err) {
+    if (err instanceof StripeAmountError) throw unprocessable(err.message);
+    throw err;
+  }
 }
