@@ -7,7 +7,7 @@ export class ProtocolPages {
 
   async openList(studyId: string) {
     await this.page.goto(`${appUrl()}/studies/${studyId}/protocol`);
-    await this.page.getByTestId("protocol-versions").waitFor();
+    await this.waitForOne("protocol-versions");
   }
 
   async startAmendment() {
@@ -21,12 +21,16 @@ export class ProtocolPages {
     await this.waitForVersionPage();
   }
 
-  /** Streaming may show a hidden copy of the page for a moment before React reveals it. */
   async waitForVersionPage() {
-    await this.page.waitForFunction(() => {
-      const found = document.querySelectorAll('[data-testid="protocol-text"]');
+    await this.waitForOne("protocol-text");
+  }
+
+  /** Streaming may hold hidden copies of a page for a moment before React reveals it: wait for one shown copy. */
+  async waitForOne(testId: string) {
+    await this.page.waitForFunction((id) => {
+      const found = document.querySelectorAll(`[data-testid="${id}"]`);
       return found.length === 1 && !found[0]!.closest("[hidden]");
-    });
+    }, testId);
   }
 
   versionIdFromUrl(): string {

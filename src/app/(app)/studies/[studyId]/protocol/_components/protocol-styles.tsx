@@ -12,6 +12,9 @@ const css = `${sectionNumberingCss}
 .cairn-protocol ol { list-style: decimal; padding-left: 1.5rem; }
 .cairn-protocol table { border-collapse: collapse; margin: 0.5rem 0; width: 100%; }
 .cairn-protocol th, .cairn-protocol td { border: 1px solid #C9C4BA; padding: 0.25rem 0.5rem; vertical-align: top; text-align: left; }
+.cairn-protocol td > p, .cairn-protocol th > p { margin: 0; }
+.cairn-protocol .whitespace-pre-wrap { tab-size: 4; }
+.cairn-protocol table.redline-table { margin: 0; font-size: 0.85rem; }
 .cairn-protocol th { background: #FAF8F4; font-weight: 600; }
 .cairn-protocol a { color: #3D5A80; text-decoration: underline; }
 .cairn-protocol .selectedCell { background: #E6EEF6; }

@@ -27,6 +27,42 @@ function Parts({ parts, side }: { parts: WordPart[]; side?: "left" | "right" }) 
   );
 }
 
+/** A table block's parts as a grid: cells are separated by tabs and rows by newlines in the plain text. */
+function tableGrid(parts: WordPart[], side: "left" | "right"): WordPart[][][] {
+  const rows: WordPart[][][] = [[[]]];
+  for (const p of parts) {
+    if ((side === "left" && p.kind === "inserted") || (side === "right" && p.kind === "deleted")) continue;
+    for (const piece of p.text.split(/(\t|\n)/)) {
+      if (piece === "\t") rows[rows.length - 1]!.push([]);
+      else if (piece === "\n") rows.push([[]]);
+      else if (piece) {
+        const row = rows[rows.length - 1]!;
+        row[row.length - 1]!.push({ kind: p.kind, text: piece });
+      }
+    }
+  }
+  return rows;
+}
+
+function TableSide({ parts, side }: { parts: WordPart[]; side: "left" | "right" }) {
+  const rows = tableGrid(parts, side);
+  return (
+    <table className="redline-table">
+      <tbody>
+        {rows.map((cells, i) => (
+          <tr key={i}>
+            {cells.map((cell, j) => (
+              <td key={j}>
+                <Parts parts={cell} side={side} />
+              </td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
 const kindWord = { equal: "", changed: "Changed", inserted: "Added", deleted: "Removed" } as const;
 
 function BlockShell({ type, level, section, children }: { type: string; level?: number; section: string | null; children: React.ReactNode }) {
@@ -73,18 +109,24 @@ function SideBySide({ redline, showEqual, fromLabel, toLabel }: { redline: Redli
           .map((r, i) => (
             <tr key={i} data-kind={r.kind}>
               <td className={r.kind === "deleted" ? "bg-brick-light" : ""}>
-                {r.left && (
-                  <BlockShell type={r.left.type} level={r.left.level} section={r.left.section}>
-                    <Parts parts={r.left.parts} side="left" />
-                  </BlockShell>
-                )}
+                {r.left &&
+                  (r.left.type === "table" ? (
+                    <TableSide parts={r.left.parts} side="left" />
+                  ) : (
+                    <BlockShell type={r.left.type} level={r.left.level} section={r.left.section}>
+                      <Parts parts={r.left.parts} side="left" />
+                    </BlockShell>
+                  ))}
               </td>
               <td className={r.kind === "inserted" ? "bg-slate-light" : ""}>
-                {r.right && (
-                  <BlockShell type={r.right.type} level={r.right.level} section={r.right.section}>
-                    <Parts parts={r.right.parts} side="right" />
-                  </BlockShell>
-                )}
+                {r.right &&
+                  (r.right.type === "table" ? (
+                    <TableSide parts={r.right.parts} side="right" />
+                  ) : (
+                    <BlockShell type={r.right.type} level={r.right.level} section={r.right.section}>
+                      <Parts parts={r.right.parts} side="right" />
+                    </BlockShell>
+                  ))}
               </td>
             </tr>
           ))}
