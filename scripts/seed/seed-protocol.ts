@@ -182,17 +182,21 @@ export async function seedProtocol({ db, log }: SeedContext) {
       })
       .returning();
 
-    const rationale2: Record<string, string> = {};
-    const soc2 = prefillSummaryOfChanges(computeRedline(d1, d2), diffVisitSchedules(scheduleV1, scheduleV2)).map((row) => ({
-      ...row,
-      rationale:
-        rationale2[row.section] ??
-        (row.section.includes("M18")
-          ? "An extra visit halfway through the second year, asked for by two ethics committees, to catch late device effects earlier."
-          : row.section.includes("M12") || row.section.includes("Reporting")
-            ? "A brain MRI at month 12 checks the tissue around the electrode tiles after the first implanted subjects' findings."
-            : "Follows from the added month 18 visit and month 12 MRI."),
-    }));
+    // The writer's rationale per row of the prefilled summary (rows are keyed by section).
+    const why = (rationales: [string, string][], fallback: string) => (row: { section: string }) => rationales.find(([prefix]) => row.section.startsWith(prefix))?.[1] ?? fallback;
+    const why2 = why(
+      [
+        ["Front matter", "Version number of this amendment."],
+        ["1 Synopsis", "The follow-up visits now include month 18."],
+        ["5.3", "Adds the month 18 visit and the month 12 brain MRI to the follow-up assessments."],
+        ["6 Schedule", "The table in the text follows the new schedule of visits."],
+        ["7.2", "States how a new finding on the month 12 MRI is reported until it is assessed."],
+        ["Schedule of visits: M18", "An extra visit halfway through the second year, asked for by two ethics committees, to catch late device effects earlier."],
+        ["Schedule of visits: M12", "A brain MRI at month 12 checks the tissue around the electrode tiles after the first implanted subjects' findings."],
+      ],
+      "Follows from the added month 18 visit and month 12 MRI.",
+    );
+    const soc2 = prefillSummaryOfChanges(computeRedline(d1, d2), diffVisitSchedules(scheduleV1, scheduleV2)).map((row) => ({ ...row, rationale: why2(row) }));
     const [v2] = await tx
       .insert(protocolVersions)
       .values({
@@ -221,14 +225,17 @@ export async function seedProtocol({ db, log }: SeedContext) {
       })
       .returning();
 
-    const soc21 = prefillSummaryOfChanges(computeRedline(d2, d21), diffVisitSchedules(scheduleV2, scheduleV21)).map((row) => ({
-      ...row,
-      rationale: row.section.includes("W1")
-        ? "Sites operating on Fridays could not hold the week-1 check within ±3 days over weekends."
-        : row.section.includes("Inclusion")
-          ? "Clarifies that a companion may accompany the subject; no change to eligibility."
-          : "Adds the study office's contact address.",
-    }));
+    const why21 = why(
+      [
+        ["Front matter", "Version number of this amendment."],
+        ["4.1", "Clarifies that a companion may accompany the subject; no change to eligibility."],
+        ["6 Schedule", "The table in the text follows the wider week-1 window."],
+        ["9 Ethics", "Adds the study office's contact address."],
+        ["Schedule of visits: W1", "Sites operating on Fridays could not hold the week-1 check within ±3 days over weekends."],
+      ],
+      "Editorial.",
+    );
+    const soc21 = prefillSummaryOfChanges(computeRedline(d2, d21), diffVisitSchedules(scheduleV2, scheduleV21)).map((row) => ({ ...row, rationale: why21(row) }));
     const [v21] = await tx
       .insert(protocolVersions)
       .values({
