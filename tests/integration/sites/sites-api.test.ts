@@ -4,8 +4,9 @@ import { POST as createSiteRoute } from "@/app/api/v1/studies/[studyId]/sites/ro
 import { GET as getSiteRoute, PATCH as updateSiteRoute } from "@/app/api/v1/sites/[siteId]/route";
 import { POST as statusRoute } from "@/app/api/v1/sites/[siteId]/status/route";
 import { GET as enrolmentRoute } from "@/app/api/v1/studies/[studyId]/enrolment/route";
-import { auditEvents } from "@/server/db/schema";
+import { auditEvents, binderDocumentTypes } from "@/server/db/schema";
 import { todayAtSite } from "@/server/sites/site-today";
+import { listDocumentTypes } from "@/server/binder/document-types";
 import { callRoute } from "../../support/api";
 import { db } from "../../support/db";
 import { createSubjectsFixture, insertSubject, type SubjectsFixture } from "../subjects/subject-fixture";
@@ -37,6 +38,13 @@ describe("sites", () => {
     const today = todayAtSite("Europe/Paris");
     expect((await step("start_up", "2099-01-01")).status).toBe(422);
     expect((await step("start_up", today)).status).toBe(200);
+    // The default essential-documents checklist gates Open (tested in full in tests/integration/binder);
+    // this study then retires every type so the rest of the lifecycle can be walked.
+    const gated = await step("open");
+    expect(gated.status).toBe(422);
+    expect(gated.json.error.message).toContain("essential documents");
+    await listDocumentTypes(db, { studyId: fx.study.id }); // installs the defaults (the refused step rolled back)
+    await db.update(binderDocumentTypes).set({ retiredAt: new Date() }).where(eq(binderDocumentTypes.studyId, fx.study.id));
     expect((await step("open")).status).toBe(200);
     expect((await step("enrolment_closed")).status).toBe(200);
     expect((await step("closed_out")).status).toBe(200);
