@@ -8,6 +8,7 @@ import { AppError, conflict, notFound, unprocessable } from "@/server/api/errors
 import { enqueueMail } from "@/server/mail/enqueue-mail";
 import { hashPassword } from "@/server/auth/password";
 import { recordAudit } from "@/server/audit/record-audit";
+import { requestForJoinedInvestigators } from "@/server/acknowledgements/joined-investigators";
 import { isSiteRole, roleLabels, type Role } from "@/lib/auth/roles";
 import type { Actor } from "@/lib/auth/authorize";
 
@@ -63,6 +64,8 @@ export async function grantRole(
   });
   if (existing) throw conflict(`${user.name} already holds this role${siteId ? " at that site" : ""}.`);
   const [row] = await tx.insert(memberships).values({ userId, studyId, siteId, role, grantedBy: actor.userId }).returning();
+  // An investigator who joins a site is asked at once to acknowledge the version in force there.
+  if (role === "investigator") await requestForJoinedInvestigators(tx, { now: new Date(), studyId });
   return row!;
 }
 
