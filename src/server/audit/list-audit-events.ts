@@ -23,3 +23,7 @@ export async function listAuditEvents(tx: Tx, { studyId, query }: { studyId: str
     .offset((query.page - 1) * query.pageSize);
   return { rows, total: total?.n ?? 0, page: query.page, pageSize: query.pageSize };
 }
+
+export async function listRecentAuditEvents(tx: Tx, { studyId, limit }: { studyId: string; limit: number }) {
+  return tx.select().from(auditEvents).where(eq(auditEvents.studyId, studyId)).orderBy(desc(auditEvents.id)).limit(limit);
+}

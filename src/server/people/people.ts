@@ -126,3 +126,12 @@ export async function acceptInvitation(tx: Tx, { token, password }: { token: str
   await recordAudit(tx, { userId: inv.userId, name: user!.name }, { action: "invitation.accepted", entityType: "user", entityId: inv.userId });
   return { email: user!.email };
 }
+
+/** People with a role in the study who have not yet set a password from their invitation. */
+export async function listPendingInvitations(tx: Tx, { studyId }: { studyId: string }) {
+  return tx
+    .selectDistinct({ name: users.name, email: users.email })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studyId, studyId), isNull(memberships.revokedAt), isNull(users.passwordHash)));
+}

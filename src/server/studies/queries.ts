@@ -1,7 +1,8 @@
 import "server-only";
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, count, eq, inArray } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { sites, studies, type Site } from "@/server/db/schema";
+import type { SiteStatus } from "@/lib/sites/site-status";
 import { notFound } from "@/server/api/errors";
 
 export async function getStudyById(tx: Tx, { studyId }: { studyId: string }) {
@@ -29,4 +30,10 @@ export async function listSitesForStudy(tx: Tx, { studyId, siteIds }: { studyId:
     .from(sites)
     .where(and(eq(sites.studyId, studyId), siteIds === "all" ? undefined : inArray(sites.id, siteIds)))
     .orderBy(asc(sites.code));
+}
+
+/** Number of sites in each lifecycle status. */
+export async function countSitesByStatus(tx: Tx, { studyId }: { studyId: string }): Promise<Map<SiteStatus, number>> {
+  const rows = await tx.select({ status: sites.status, n: count() }).from(sites).where(eq(sites.studyId, studyId)).groupBy(sites.status);
+  return new Map(rows.map((r) => [r.status, r.n]));
 }

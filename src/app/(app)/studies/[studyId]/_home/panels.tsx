@@ -1,7 +1,7 @@
-import { and, count, desc, eq, isNull } from "drizzle-orm";
 import { db } from "@/server/db/client";
-import { auditEvents, memberships, sites, users } from "@/server/db/schema";
-import { listSitesForStudy } from "@/server/studies/queries";
+import { countSitesByStatus, listSitesForStudy } from "@/server/studies/queries";
+import { listPendingInvitations } from "@/server/people/people";
+import { listRecentAuditEvents } from "@/server/audit/list-audit-events";
 import { accessibleSiteIds, type Actor } from "@/lib/auth/authorize";
 import type { Role } from "@/lib/auth/roles";
 import { siteStatusLabels, siteStatuses } from "@/lib/sites/site-status";
@@ -23,8 +23,7 @@ export type HomePanel = {
 };
 
 async function SitesByStatus({ studyId }: { studyId: string }) {
-  const rows = await db.select({ status: sites.status, n: count() }).from(sites).where(eq(sites.studyId, studyId)).groupBy(sites.status);
-  const by = new Map(rows.map((r) => [r.status, r.n]));
+  const by = await countSitesByStatus(db, { studyId });
   return (
     <table className="table-dense">
       <tbody>
@@ -40,11 +39,7 @@ async function SitesByStatus({ studyId }: { studyId: string }) {
 }
 
 async function PendingInvitations({ studyId }: { studyId: string }) {
-  const rows = await db
-    .selectDistinct({ name: users.name, email: users.email })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(and(eq(memberships.studyId, studyId), isNull(memberships.revokedAt), isNull(users.passwordHash)));
+  const rows = await listPendingInvitations(db, { studyId });
   if (rows.length === 0) return <p className="text-sm">Everyone invited has set a password.</p>;
   return (
     <ul className="text-sm">
@@ -58,7 +53,7 @@ async function PendingInvitations({ studyId }: { studyId: string }) {
 }
 
 async function LatestAudit({ studyId }: { studyId: string }) {
-  const rows = await db.select().from(auditEvents).where(eq(auditEvents.studyId, studyId)).orderBy(desc(auditEvents.id)).limit(6);
+  const rows = await listRecentAuditEvents(db, { studyId, limit: 6 });
   if (rows.length === 0) return <p className="text-sm">No recorded changes yet.</p>;
   return (
     <ul className="text-sm">

@@ -1,9 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { and, desc, eq, inArray } from "drizzle-orm";
 import { db } from "@/server/db/client";
-import { protocolVersions } from "@/server/db/schema";
+import { listProtocolVersions } from "@/server/protocol/queries";
 import { getStudyContext } from "@/server/studies/study-context";
 import { listSitesForStudy } from "@/server/studies/queries";
 import { listMyAcknowledgements } from "@/server/acknowledgements/list-matrix";
@@ -23,11 +22,7 @@ export default async function AcknowledgementsPage({ params, searchParams }: { p
   const signs = canSomewhere(actor, "acknowledgement.sign", studyId);
   const mine = signs ? await listMyAcknowledgements(db, { studyId, userId: actor.userId }) : [];
   const sites = await listSitesForStudy(db, { studyId, siteIds: accessibleSiteIds(actor, "acknowledgement.read", studyId) });
-  const versions = await db
-    .select({ id: protocolVersions.id, versionLabel: protocolVersions.versionLabel })
-    .from(protocolVersions)
-    .where(and(eq(protocolVersions.studyId, studyId), inArray(protocolVersions.state, ["released", "superseded"])))
-    .orderBy(desc(protocolVersions.releasedAt));
+  const versions = (await listProtocolVersions(db, { studyId, audience: "published" })).map((v) => ({ id: v.id, versionLabel: v.versionLabel }));
 
   return (
     <div className="space-y-6">

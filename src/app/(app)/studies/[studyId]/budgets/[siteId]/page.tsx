@@ -1,9 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { and, desc, eq, inArray } from "drizzle-orm";
 import { db } from "@/server/db/client";
-import { protocolVersions, siteVersionApprovals } from "@/server/db/schema";
+import { listVersionsInForceAtSite } from "@/server/protocol/in-force";
 import { getStudyContext } from "@/server/studies/study-context";
 import { getSiteBudget } from "@/server/budgets/queries";
 import { listPassThroughInvoices } from "@/server/budgets/pass-through-invoices";
@@ -27,12 +26,9 @@ export default async function SiteBudgetPage({ params }: { params: Promise<{ stu
   const canWrite = can(actor, "budget.write", { studyId, siteId });
 
   // Protocol versions the site has approved: an amendment may follow one of them.
-  const approvals = await db
-    .select({ id: protocolVersions.id, label: protocolVersions.versionLabel, approvedOn: siteVersionApprovals.approvedOn, schedule: protocolVersions.visitSchedule })
-    .from(siteVersionApprovals)
-    .innerJoin(protocolVersions, eq(protocolVersions.id, siteVersionApprovals.versionId))
-    .where(and(eq(siteVersionApprovals.siteId, siteId), inArray(protocolVersions.state, ["released", "superseded"])))
-    .orderBy(desc(siteVersionApprovals.approvedOn));
+  const approvals = (await listVersionsInForceAtSite(db, { siteId }))
+    .map((v) => ({ id: v.versionId, label: v.versionLabel, approvedOn: v.inForceFrom, schedule: v.schedule }))
+    .reverse();
   const labelOf = new Map(approvals.map((a) => [a.id, a.label]));
   const invoices = await listPassThroughInvoices(db, { siteId });
 
