@@ -68,6 +68,10 @@ export function startCluster({ bin, dir, port, database, fast = false }) {
     asPostgres(path.join(bin, "initdb"), ["-D", dataDir, "-U", "postgres", "--auth-local=peer", "--auth-host=scram-sha-256", `--pwfile=${superPwFile}`, "-E", "UTF8", "--locale=C.UTF-8"], { quiet: true });
   }
   const status = spawnSync(path.join(bin, "pg_isready"), ["-h", "127.0.0.1", "-p", String(port)], { stdio: "ignore" });
+  const ours = existsSync(path.join(dataDir, "postmaster.pid"));
+  if (status.status === 0 && !ours) {
+    throw new Error(`Another PostgreSQL server already answers on 127.0.0.1:${port}. Stop it, or choose another port with CAIRN_PG_PORT.`);
+  }
   if (status.status !== 0) {
     const opts = [`-c listen_addresses=127.0.0.1`, `-p ${port}`, `-c unix_socket_directories=''`, `-c max_connections=200`];
     if (fast) opts.push("-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off");

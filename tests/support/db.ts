@@ -12,13 +12,14 @@ export { db };
 export async function createStudyFixture() {
   const tag = randomUUID().slice(0, 8);
   const [study] = await db.insert(studies).values({ code: `T-${tag}`, title: `Test study ${tag}`, sponsorName: "Test sponsor" }).returning();
+  // Site codes in the pattern subject codes build on (two letters, digits); unique within the study.
   const [siteA] = await db
     .insert(sites)
-    .values({ studyId: study!.id, code: `A${tag.slice(0, 3)}`.toUpperCase(), name: "Site A", country: "DE", timeZone: "Europe/Berlin", currency: "EUR", status: "open" })
+    .values({ studyId: study!.id, code: "SA01", name: "Site A", country: "DE", timeZone: "Europe/Berlin", currency: "EUR", status: "open" })
     .returning();
   const [siteB] = await db
     .insert(sites)
-    .values({ studyId: study!.id, code: `B${tag.slice(0, 3)}`.toUpperCase(), name: "Site B", country: "JP", timeZone: "Asia/Tokyo", currency: "JPY", status: "open" })
+    .values({ studyId: study!.id, code: "SB01", name: "Site B", country: "JP", timeZone: "Asia/Tokyo", currency: "JPY", status: "open" })
     .returning();
   const userByRole = {} as Record<Role, { id: string; email: string; name: string }>;
   for (const role of roles) {
