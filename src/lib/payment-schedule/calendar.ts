@@ -3,44 +3,12 @@
 
 export type PaymentCycle = "monthly" | "quarterly";
 
-/** Days since 1970-01-01 of a civil date (H. Hinnant's days_from_civil). */
-export function dayNumber(iso: string): number {
-  let y = Number(iso.slice(0, 4));
-  const m = Number(iso.slice(5, 7));
-  const d = Number(iso.slice(8, 10));
-  y -= m <= 2 ? 1 : 0;
-  const era = Math.floor(y / 400);
-  const yoe = y - era * 400;
-  const doy = Math.floor((153 * (m + (m > 2 ? -3 : 9)) + 2) / 5) + d - 1;
-  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
-  return era * 146097 + doe - 719468;
-}
+// The day-number arithmetic is the visits library's (one implementation for every calendar date).
+export { toDayNumber as dayNumber, fromDayNumber, addCalendarDays as addDays, daysInMonth } from "@/lib/visits/calendar-date";
+import { addCalendarDays as addDays, daysInMonth } from "@/lib/visits/calendar-date";
 
 function pad(n: number, width: number): string {
   return String(n).padStart(width, "0");
-}
-
-/** The ISO date of a day number (civil_from_days). */
-export function fromDayNumber(z0: number): string {
-  const z = z0 + 719468;
-  const era = Math.floor(z / 146097);
-  const doe = z - era * 146097;
-  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365);
-  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
-  const mp = Math.floor((5 * doy + 2) / 153);
-  const d = doy - Math.floor((153 * mp + 2) / 5) + 1;
-  const m = mp + (mp < 10 ? 3 : -9);
-  const y = yoe + era * 400 + (m <= 2 ? 1 : 0);
-  return `${pad(y, 4)}-${pad(m, 2)}-${pad(d, 2)}`;
-}
-
-export function addDays(iso: string, days: number): string {
-  return fromDayNumber(dayNumber(iso) + days);
-}
-
-export function daysInMonth(year: number, month: number): number {
-  if (month === 2) return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0 ? 29 : 28;
-  return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
 }
 
 export interface CyclePeriod {

@@ -3,11 +3,11 @@ import type { IsoDate, ScheduledVisit } from "@/lib/protocol/visit-schedule";
 // Calendar dates as integer day numbers (days since 1970-01-01, proleptic Gregorian).
 // No Date objects and no time zones: a date string names a day at the site, nothing more.
 
-function isLeapYear(y: number): boolean {
+export function isLeapYear(y: number): boolean {
   return (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
 }
 
-function daysInMonth(y: number, m: number): number {
+export function daysInMonth(y: number, m: number): number {
   if (m === 2) return isLeapYear(y) ? 29 : 28;
   return m === 4 || m === 6 || m === 9 || m === 11 ? 30 : 31;
 }
