@@ -9,22 +9,14 @@ import { defaultBinderTypes } from "../../src/lib/binder/default-types";
 import { addCalendarDays } from "../../src/lib/visits/calendar-date";
 import { siteStatuses } from "../../src/lib/sites/site-status";
 import type { Role } from "../../src/lib/auth/roles";
+import { seededRandom } from "../lib/seeded-random";
 
 const SITES = 300;
 const PEOPLE = 8;
 const TODAY = "2026-12-01";
 const runs = Number(process.argv[2] ?? 7);
 
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 const rand = rng(8);
 const types: BinderType[] = defaultBinderTypes.map((t, i) => ({ id: `t${i}`, code: t.code, name: t.name, holder: t.holder, appliesToRoles: t.appliesToRoles, requiredFrom: t.requiredFrom, expires: t.expires }));
 const roleCycle: Role[] = ["investigator", "coordinator", "site_finance", "investigator"];

@@ -3,6 +3,7 @@
 import { addDays } from "../../src/lib/payment-schedule/calendar";
 import { priceFee } from "../../src/lib/payment-schedule/pricing";
 import type { BudgetVersion, PassThroughInvoice, Payment, PaymentScheduleSnapshot, RecordedVisit, Site, Subject } from "../../src/lib/payment-schedule/snapshot";
+import { seededRandom } from "../lib/seeded-random";
 
 export interface GenerateStudyOptions {
   sites?: number;
@@ -12,17 +13,7 @@ export interface GenerateStudyOptions {
   asOf?: string;
 }
 
-// mulberry32: small, fast, good enough for test data.
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = seededRandom;
 
 const CURRENCIES: [string, string, bigint][] = [
   ["EUR", "Europe/Berlin", 1n],

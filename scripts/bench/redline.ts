@@ -7,17 +7,9 @@ import { diffWords } from "diff";
 import { computeRedline } from "../../src/lib/protocol/redline";
 import { nodePlainText } from "../../src/lib/protocol/plain-text";
 import type { ProtocolDoc, ProtocolNode } from "../../src/lib/protocol/types";
+import { seededRandom } from "../lib/seeded-random";
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const mulberry32 = seededRandom;
 
 const vocabulary = (
   "subject visit implant electrode stimulation threshold phosphene safety adverse event device investigator site " +

@@ -9,6 +9,7 @@ import { computeSubjectCalendar, type ProtocolVersionAtSite, type RecordedVisit,
 import { detectDeviations } from "../../src/lib/visits/deviations";
 import { buildSiteVisitFeed } from "../../src/lib/visits/ical";
 import type { SubjectStatus } from "../../src/lib/subjects/subject-states";
+import { seededRandom } from "../lib/seeded-random";
 
 const SITES = 200;
 const SUBJECTS_PER_SITE = 50;
@@ -16,17 +17,7 @@ const TARGET_VISITS = 150_000;
 const AS_OF = "2026-12-01";
 const runs = Number(process.argv[2] ?? 7);
 
-// mulberry32: small seeded generator so every run sees the same study.
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 const rand = rng(20261201);
 const int = (lo: number, hi: number) => lo + Math.floor(rand() * (hi - lo + 1));
 

@@ -16,6 +16,7 @@ import { NextRequest } from "next/server";
 import * as schema from "../../src/server/db/schema";
 import type { ScheduledVisit, VisitSchedule } from "../../src/lib/protocol/visit-schedule";
 import { fromDayNumber, toDayNumber } from "../../src/lib/visits/calendar-date";
+import { seededRandom } from "../lib/seeded-random";
 
 const SITES = 200;
 const SUBJECTS_PER_SITE = 50;
@@ -45,16 +46,7 @@ register(`data:text/javascript,${encodeURIComponent(benchHooks)}`);
 const baseUrl = process.env.DATABASE_URL;
 if (!baseUrl) throw new Error("DATABASE_URL is not set");
 
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 const rand = rng(5);
 const int = (lo: number, hi: number) => lo + Math.floor(rand() * (hi - lo + 1));
 const sv = (code: string, anchor: ScheduledVisit["anchor"], dayOffset: number, w: number): ScheduledVisit => ({ code, label: `Visit ${code}`, anchor, dayOffset, windowBefore: w, windowAfter: w, procedures: [] });

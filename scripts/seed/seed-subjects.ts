@@ -9,6 +9,7 @@ import { detectDeviations, visitOutOfWindowCategory } from "../../src/lib/visits
 import type { SubjectStatus } from "../../src/lib/subjects/subject-states";
 import { demoStudy } from "./demo-data";
 import type { SeedContext } from "./context";
+import { seededRandom } from "../lib/seeded-random";
 
 /** The demo's "today": data are laid out as of this date. */
 const DEMO_TODAY = "2026-12-01";
@@ -33,16 +34,7 @@ const plan: Record<string, { n: number; screenUntil: string }> = {
   CH01: { n: 4, screenUntil: "2026-01-15" },
 };
 
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 
 export async function seedSubjects({ db, log }: SeedContext) {
   const [study] = await db.select().from(studies).where(eq(studies.code, demoStudy.code));

@@ -8,6 +8,7 @@ import { sendQueuedTransfers } from "@/server/payments/send-transfers";
 import { requestSendPaymentRun } from "@/server/payments/runs";
 import { createStudyFixture } from "../../support/db";
 import { addSite, approvedRun, control, fakeTransfers, secondSponsorFinance, startPaymentsFake, transfersOfRun, verifiedPayee, type PaymentsFake } from "./helpers";
+import { seededRandom } from "../../../scripts/lib/seeded-random";
 
 let pf: PaymentsFake;
 beforeAll(async () => {
@@ -16,15 +17,7 @@ beforeAll(async () => {
 afterAll(async () => pf?.close());
 
 // A small seeded generator (mulberry32), so a failing run can be repeated.
-function prng(seed: number) {
-  return () => {
-    seed |= 0;
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = seededRandom;
 
 describe("sending through a faulty Stripe", () => {
   it("ends every line sent or failed, with exactly one transfer per site and currency", async () => {
