@@ -53,6 +53,89 @@ function addTotals(into: Totals, from: Totals): void {
   into.lineCount += from.lineCount;
 }
 
+type CycleAcc = { period: EarnedLine["cycle"]; dueDate: string; lineCount: number; gross: MoneySum; overhead: MoneySum; holdback: MoneySum; net: MoneySum; paid: MoneySum; outstanding: MoneySum; overdue: MoneySum };
+
+/**
+ * Settles a site's lines one by one (payments clamped, state) and adds them up by cycle; the site's
+ * totals are the sums of its cycles' (exact integer sums, so the order of the lines does not matter).
+ */
+class SiteAccumulator {
+  readonly cycles = new Map<EarnedLine["cycle"], Map<string, CycleAcc>>();
+  readonly ledgerByCycle = new Map<string, { label: string; withheld: MoneySum; released: MoneySum }>();
+  readonly unapplied = new MoneySum();
+  readonly withheld = new MoneySum();
+  readonly released = new MoneySum();
+  releaseLineKey: string | null = null;
+  private lastCycle: CycleAcc | null = null;
+
+  constructor(
+    private readonly asOf: string,
+    private readonly inRun: ReadonlySet<string>,
+  ) {}
+
+  add(l: EarnedLine): void {
+    if (this.inRun.size > 0 && this.inRun.has(l.key)) l.inPaymentRun = true;
+    if (l.paidMinor > l.netMinor) {
+      l.unappliedMinor = l.paidMinor - l.netMinor;
+      l.paidMinor = l.netMinor;
+    }
+    l.outstandingMinor = l.paidMinor === 0n ? l.netMinor : l.paidMinor === l.netMinor ? 0n : l.netMinor - l.paidMinor;
+    l.partiallyPaid = l.paidMinor > 0n && l.outstandingMinor > 0n;
+    const overdue = l.outstandingMinor > 0n && l.dueDate < this.asOf;
+    l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
+
+    const h = Number(l.holdbackMinor);
+    if (l.unappliedMinor !== 0n) this.unapplied.add(l.unappliedMinor);
+    if (l.holdbackMinor < 0n) {
+      this.released.add(-l.holdbackMinor);
+      this.releaseLineKey = l.key;
+    } else this.withheld.add(l.holdbackMinor, h);
+
+    // Lines mostly follow a line of the same cycle (sorted by trigger date, or a subject's visits).
+    let c: CycleAcc | undefined = this.lastCycle !== null && this.lastCycle.period === l.cycle && this.lastCycle.dueDate === l.dueDate ? this.lastCycle : undefined;
+    if (!c) {
+      let byDue = this.cycles.get(l.cycle);
+      if (!byDue) {
+        byDue = new Map();
+        this.cycles.set(l.cycle, byDue);
+      }
+      c = byDue.get(l.dueDate);
+      if (!c) {
+        c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
+        byDue.set(l.dueDate, c);
+      }
+      this.lastCycle = c;
+    }
+    const out = Number(l.outstandingMinor);
+    c.lineCount++;
+    c.gross.add(l.grossMinor, Number(l.grossMinor));
+    c.overhead.add(l.overheadMinor, Number(l.overheadMinor));
+    c.holdback.add(l.holdbackMinor, h);
+    c.net.add(l.netMinor, Number(l.netMinor));
+    c.paid.add(l.paidMinor, Number(l.paidMinor));
+    c.outstanding.add(l.outstandingMinor, out);
+    if (overdue) c.overdue.add(l.outstandingMinor, out);
+
+    if (l.holdbackMinor !== 0n) {
+      let hb = this.ledgerByCycle.get(l.cycle.label);
+      if (!hb) {
+        hb = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
+        this.ledgerByCycle.set(l.cycle.label, hb);
+      }
+      if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h);
+      else hb.released.add(-l.holdbackMinor);
+    }
+  }
+}
+
+export interface ComputeOptions {
+  /**
+   * false: totals only — `lines` comes back empty and no line is kept or sorted (every total, cycle,
+   * holdback ledger, pending event and unmatched payment is the same as with the lines).
+   */
+  lines?: boolean;
+}
+
 /**
  * The payment schedule of one site or a whole study: a pure, deterministic function of its snapshot
  * (no clock, no I/O). Lines come out by site (input order), then trigger date, then key.
@@ -62,7 +145,8 @@ function addTotals(into: Totals, from: Totals): void {
  * and anything paid beyond the net is `unapplied` (shown, not counted as paid), so that for every
  * line, site and currency: earned (gross + overhead) = paid + outstanding + held back.
  */
-export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): PaymentSchedule {
+export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, options: ComputeOptions = {}): PaymentSchedule {
+  const keepLines = options.lines !== false;
   const sites = snapshot.sites;
   const siteInputs = new Map<string, SiteInput>();
   const pending: PendingEvent[] = [];
@@ -99,97 +183,59 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
   const prices = new PriceBook();
   const cycles = new CycleBook();
   const payments = new PaymentIndex(snapshot.payments ?? []);
-  const lines: EarnedLine[] = [];
-  const perSite = new Map<string, EarnedLine[]>();
-  for (const input of siteInputs.values()) {
-    const siteLines = buildSiteLines(input, prices, cycles, payments, pending);
-    perSite.set(input.site.id, siteLines);
-    for (const l of siteLines) lines.push(l);
-  }
-
   const inRun = new Set(snapshot.inPaymentRun ?? []);
+  const lines: EarnedLine[] = [];
 
+  // Sites one after the other: a site's lines are built, then settled and added up (pending events
+  // come out in the same order either way).
   const cycleSummaries: CycleSummary[] = [];
   const siteTotals: SiteTotals[] = [];
   const holdback: HoldbackLedger[] = [];
   const currencyTotals = new Map<string, CurrencyTotals>();
   for (const input of siteInputs.values()) {
     const { site, asOf } = input;
-    const sums = { gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum(), unapplied: new MoneySum(), withheld: new MoneySum(), released: new MoneySum() };
+    const acc = new SiteAccumulator(asOf, inRun);
+    if (keepLines) {
+      for (const l of buildSiteLines(input, prices, cycles, payments, pending)) {
+        acc.add(l);
+        lines.push(l);
+      }
+    } else buildSiteLines(input, prices, cycles, payments, pending, (l) => acc.add(l));
+
+    const accs = [...acc.cycles.values()].flatMap((m) => [...m.values()]);
+    // By cycle start, due date, then label (a month and a quarter may share both).
+    accs.sort((a, b) =>
+      a.period.start < b.period.start ? -1 : a.period.start > b.period.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : a.period.label < b.period.label ? -1 : a.period.label > b.period.label ? 1 : 0,
+    );
+    const sums = { gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
     let lineCount = 0;
-    let releaseLineKey: string | null = null;
-    type CycleAcc = { period: EarnedLine["cycle"]; dueDate: string; lineCount: number; gross: MoneySum; overhead: MoneySum; holdback: MoneySum; net: MoneySum; paid: MoneySum; outstanding: MoneySum; overdue: MoneySum };
-    const cyclesOfSite = new Map<EarnedLine["cycle"], Map<string, CycleAcc>>();
-    const ledgerByCycle = new Map<string, { label: string; withheld: MoneySum; released: MoneySum }>();
-    let lastCycle: CycleAcc | null = null;
-    for (const l of perSite.get(site.id) as EarnedLine[]) {
-      if (inRun.size > 0 && inRun.has(l.key)) l.inPaymentRun = true;
-      if (l.paidMinor > l.netMinor) {
-        l.unappliedMinor = l.paidMinor - l.netMinor;
-        l.paidMinor = l.netMinor;
-      }
-      l.outstandingMinor = l.paidMinor === 0n ? l.netMinor : l.paidMinor === l.netMinor ? 0n : l.netMinor - l.paidMinor;
-      l.partiallyPaid = l.paidMinor > 0n && l.outstandingMinor > 0n;
-      const overdue = l.outstandingMinor > 0n && l.dueDate < asOf;
-      l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
-
-      // Each amount converted once, then added to the site's and the cycle's sums.
-      const g = Number(l.grossMinor);
-      const o = Number(l.overheadMinor);
-      const h = Number(l.holdbackMinor);
-      const n = Number(l.netMinor);
-      const p = Number(l.paidMinor);
-      const out = Number(l.outstandingMinor);
-      sums.gross.add(l.grossMinor, g);
-      sums.overhead.add(l.overheadMinor, o);
-      sums.holdback.add(l.holdbackMinor, h);
-      sums.net.add(l.netMinor, n);
-      sums.paid.add(l.paidMinor, p);
-      sums.outstanding.add(l.outstandingMinor, out);
-      if (l.unappliedMinor !== 0n) sums.unapplied.add(l.unappliedMinor);
-      if (overdue) sums.overdue.add(l.outstandingMinor, out);
-      lineCount++;
-      if (l.holdbackMinor < 0n) {
-        sums.released.add(-l.holdbackMinor);
-        releaseLineKey = l.key;
-      } else sums.withheld.add(l.holdbackMinor, h);
-
-      // Lines come sorted by trigger date: most follow a line of the same cycle.
-      let c: CycleAcc | undefined = lastCycle !== null && lastCycle.period === l.cycle && lastCycle.dueDate === l.dueDate ? lastCycle : undefined;
-      if (!c) {
-        let byDue = cyclesOfSite.get(l.cycle);
-        if (!byDue) {
-          byDue = new Map();
-          cyclesOfSite.set(l.cycle, byDue);
-        }
-        c = byDue.get(l.dueDate);
-        if (!c) {
-          c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
-          byDue.set(l.dueDate, c);
-        }
-        lastCycle = c;
-      }
-      c.lineCount++;
-      c.gross.add(l.grossMinor, g);
-      c.overhead.add(l.overheadMinor, o);
-      c.holdback.add(l.holdbackMinor, h);
-      c.net.add(l.netMinor, n);
-      c.paid.add(l.paidMinor, p);
-      c.outstanding.add(l.outstandingMinor, out);
-      if (overdue) c.overdue.add(l.outstandingMinor, out);
-
-      if (l.holdbackMinor !== 0n) {
-        let hb = ledgerByCycle.get(l.cycle.label);
-        if (!hb) {
-          hb = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
-          ledgerByCycle.set(l.cycle.label, hb);
-        }
-        if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h);
-        else hb.released.add(-l.holdbackMinor);
-      }
+    for (const c of accs) {
+      const summary: CycleSummary = {
+        siteId: site.id,
+        currency: site.currency,
+        cycle: c.period,
+        dueDate: c.dueDate,
+        lineCount: c.lineCount,
+        grossMinor: c.gross.value,
+        overheadMinor: c.overhead.value,
+        holdbackMinor: c.holdback.value,
+        netMinor: c.net.value,
+        paidMinor: c.paid.value,
+        outstandingMinor: c.outstanding.value,
+        overdueMinor: c.overdue.value,
+      };
+      cycleSummaries.push(summary);
+      lineCount += c.lineCount;
+      sums.gross.add(summary.grossMinor);
+      sums.overhead.add(summary.overheadMinor);
+      sums.holdback.add(summary.holdbackMinor);
+      sums.net.add(summary.netMinor);
+      sums.paid.add(summary.paidMinor);
+      sums.outstanding.add(summary.outstandingMinor);
+      sums.overdue.add(summary.overdueMinor);
     }
-    const withheld = sums.withheld.value;
-    const released = sums.released.value;
+    const withheld = acc.withheld.value;
+    const released = acc.released.value;
     const totals: SiteTotals = {
       siteId: site.id,
       asOf,
@@ -205,12 +251,12 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
       paidMinor: sums.paid.value,
       outstandingMinor: sums.outstanding.value,
       overdueMinor: sums.overdue.value,
-      unappliedMinor: sums.unapplied.value,
+      unappliedMinor: acc.unapplied.value,
       lineCount,
     };
-    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: withheld, releasedMinor: released, balanceMinor: withheld - released, releaseLineKey, byCycle: [] };
+    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: withheld, releasedMinor: released, balanceMinor: withheld - released, releaseLineKey: acc.releaseLineKey, byCycle: [] };
     let running = 0n;
-    for (const h of [...ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
+    for (const h of [...acc.ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
       const w = h.withheld.value;
       const r = h.released.value;
       running += w - r;
@@ -218,24 +264,6 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot): Payme
     }
     siteTotals.push(totals);
     holdback.push(ledger);
-    const accs = [...cyclesOfSite.values()].flatMap((m) => [...m.values()]);
-    accs.sort((a, b) => (a.period.start < b.period.start ? -1 : a.period.start > b.period.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0));
-    for (const c of accs) {
-      cycleSummaries.push({
-        siteId: site.id,
-        currency: site.currency,
-        cycle: c.period,
-        dueDate: c.dueDate,
-        lineCount: c.lineCount,
-        grossMinor: c.gross.value,
-        overheadMinor: c.overhead.value,
-        holdbackMinor: c.holdback.value,
-        netMinor: c.net.value,
-        paidMinor: c.paid.value,
-        outstandingMinor: c.outstanding.value,
-        overdueMinor: c.overdue.value,
-      });
-    }
     // Amounts in different currencies are never added together.
     let ct = currencyTotals.get(site.currency);
     if (!ct) {

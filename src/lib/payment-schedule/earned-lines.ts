@@ -106,7 +106,17 @@ const ZERO: Amounts = { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, ne
  * - Cycle and net days come from the version applied to the line; the cycle is the calendar
  *   month or quarter of the trigger date.
  */
-export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: CycleBook, payments: PaymentIndex, pending: PendingEvent[]): EarnedLine[] {
+export function buildSiteLines(
+  input: SiteInput,
+  prices: PriceBook,
+  cycles: CycleBook,
+  payments: PaymentIndex,
+  pending: PendingEvent[],
+  sink: ((line: EarnedLine) => void) | null = null,
+): EarnedLine[] {
+  // With a sink, each line goes to it as soon as it is built and none is kept (totals only): the
+  // lines then arrive unsorted, and nothing of them outlives the call.
+  let visitWithheld = 0n;
   const { site, asOf, versions } = input;
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
@@ -257,7 +267,11 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
     const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
     const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as Amounts), cycles, false, null, null, null);
     payments.applyTo(line, visit.id, asOf);
-    lines.push(line);
+    if (sink === null) lines.push(line);
+    else {
+      if (line.holdbackMinor !== 0n) visitWithheld += line.holdbackMinor;
+      sink(line);
+    }
   }
 
   // Pass-through invoices.
@@ -283,7 +297,7 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
 
   // Holdback release at close-out: everything withheld so far.
   if (closedOutOn) {
-    let withheld = 0n;
+    let withheld = visitWithheld;
     for (const d of drafts) withheld += d.amounts.holdbackMinor;
     for (const l of lines) withheld += l.holdbackMinor;
     const v = versionAt(versions, closedOutOn);
@@ -304,9 +318,10 @@ export function buildSiteLines(input: SiteInput, prices: PriceBook, cycles: Cycl
   for (const d of drafts) {
     const line = newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null);
     payments.applyTo(line, null, asOf);
-    lines.push(line);
+    if (sink === null) lines.push(line);
+    else sink(line);
   }
-  return sortLines(lines);
+  return sink === null ? sortLines(lines) : lines;
 }
 
 /** A line with every field in the same order (one object shape), unsettled. */

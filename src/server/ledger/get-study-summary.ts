@@ -19,7 +19,8 @@ export async function getStudySummary(tx: Tx, { studyId, siteIds, asOf }: { stud
     loadScheduleSnapshot(tx, { studyId, siteIds, asOf: when }),
     tx.select().from(exchangeRates).where(and(eq(exchangeRates.studyId, studyId))),
   ]);
-  const schedule = computePaymentSchedule(snapshot);
+  // The response carries totals only: no line is kept (same totals as the full schedule).
+  const schedule = computePaymentSchedule(snapshot, { lines: false });
   const siteById = new Map(sites.map((s) => [s.id, s]));
   const rateDate = localDate(when, "UTC");
   const rates = ratesInForce(rateRows, study.reportingCurrency, rateDate);

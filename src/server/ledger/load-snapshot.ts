@@ -1,8 +1,7 @@
 import "server-only";
 import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
-import { paymentsRecorded, passThroughInvoices, siteStatusEvents, sites, studies } from "@/server/db/schema";
-import { subjects, visitRecords } from "@/server/db/schema/subjects";
+import { passThroughInvoices, siteStatusEvents, sites, studies } from "@/server/db/schema";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { notFound } from "@/server/api/errors";
 import { listBudgetVersions } from "@/server/budgets/queries";
@@ -28,10 +27,19 @@ const NO_SITE = "00000000-0000-4000-8000-000000000000";
 type SubjectRow = { id: string; siteId: string; code: string; status: SubjectStatus; consentDate: string; screeningDate: string | null; enrolmentDate: string | null; implantDate: string | null; endedOn: string | null };
 type VisitRow = { id: string; subjectId: string; visitCode: string; versionId: string; outcome: "done" | "missed"; actualDate: string | null; dataEnteredOn: string | null; verifiedOn: string | null };
 
-async function rowsOf<T>(result: Promise<unknown>): Promise<T[]> {
-  return ((await result) as { rows: T[] }).rows;
+type Queryable = { query: (config: { text: string; values: unknown[]; rowMode: "array" }) => Promise<{ rows: unknown[][] }> };
+
+/**
+ * Rows as arrays, straight from pg (no per-row objects keyed by column name, no ORM mapping): the
+ * three large reads are 10,000s of rows. Every column is selected as text. Runs on the handle's own
+ * client: the pool outside a transaction (so concurrent reads take separate connections), the
+ * transaction's connection inside one.
+ */
+async function arrayRows(tx: Tx, text: string, values: unknown[]): Promise<(string | null)[][]> {
+  const client = (tx as unknown as { session?: { client?: Queryable } }).session?.client;
+  if (!client || typeof client.query !== "function") throw new Error("loadScheduleSnapshot: the database handle exposes no pg client");
+  return (await client.query({ text, values, rowMode: "array" })).rows as (string | null)[][];
 }
-const sqlList = (ids: readonly string[]) => sql`(${sql.join((ids.length ? ids : [NO_SITE]).map((id) => sql`${id}`), sql`, `)})`;
 const ENROLLED_STATES: SubjectStatus[] = ["enrolled", "implanted", "follow_up"];
 
 export async function loadScheduleSnapshot(
@@ -56,22 +64,30 @@ export async function loadScheduleSnapshot(
       .where(and(inSites(siteStatusEvents.siteId), inArray(siteStatusEvents.toStatus, ["open", "enrolment_closed", "closed_out"])))
       .groupBy(siteStatusEvents.siteId, siteStatusEvents.toStatus),
     listBudgetVersions(tx, { siteIds: ids }),
-    // The three large reads skip the query builder's row mapping: plain rows, dates as text.
-    rowsOf<SubjectRow>(
-      tx.execute(sql`select id, site_id as "siteId", code, status, consent_date::text as "consentDate", screening_date::text as "screeningDate", enrolment_date::text as "enrolmentDate",
-        implant_date::text as "implantDate", ended_on::text as "endedOn" from ${subjects} where study_id = ${studyId} ${siteIds === "all" ? sql`` : sql`and site_id in ${sqlList(ids)}`}`),
+    // The three large reads skip the query builder: plain rows as arrays, dates as text.
+    arrayRows(
+      tx,
+      `select id::text, site_id::text, code, status::text, consent_date::text, screening_date::text, enrolment_date::text, implant_date::text, ended_on::text
+        from subjects where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      siteIds === "all" ? [studyId] : [studyId, ids],
+    ).then((rows) =>
+      rows.map((r): SubjectRow => ({ id: r[0]!, siteId: r[1]!, code: r[2]!, status: r[3] as SubjectStatus, consentDate: r[4]!, screeningDate: r[5] ?? null, enrolmentDate: r[6] ?? null, implantDate: r[7] ?? null, endedOn: r[8] ?? null })),
     ),
-    rowsOf<VisitRow>(
-      tx.execute(sql`select vr.id, vr.subject_id as "subjectId", vr.visit_code as "visitCode", ${projection ? sql`vr.version_id as "versionId",` : sql``} vr.outcome, vr.actual_date::text as "actualDate",
-        vr.data_entered_on::text as "dataEnteredOn", vr.verified_on::text as "verifiedOn"
-        from ${visitRecords} vr join ${subjects} su on su.id = vr.subject_id
-        where su.study_id = ${studyId} and vr.actual_date is not null ${siteIds === "all" ? sql`` : sql`and su.site_id in ${sqlList(ids)}`}`),
+    arrayRows(
+      tx,
+      `select vr.id::text, vr.subject_id::text, vr.visit_code, ${projection ? "vr.version_id::text" : "null"}, vr.outcome::text, vr.actual_date::text, vr.data_entered_on::text, vr.verified_on::text
+        from visit_records vr join subjects su on su.id = vr.subject_id
+        where su.study_id = $1 and vr.actual_date is not null ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}`,
+      siteIds === "all" ? [studyId] : [studyId, ids],
+    ).then((rows) =>
+      rows.map((r): VisitRow => ({ id: r[0]!, subjectId: r[1]!, visitCode: r[2]!, versionId: r[3]!, outcome: r[4] as VisitRow["outcome"], actualDate: r[5] ?? null, dataEnteredOn: r[6] ?? null, verifiedOn: r[7] ?? null })),
     ),
     tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
-    rowsOf<{ lineKey: string; amount: string; paidOn: string }>(
-      tx.execute(sql`select line_key as "lineKey", amount_minor::text as amount, paid_on::text as "paidOn" from ${paymentsRecorded}
-        where study_id = ${studyId} ${siteIds === "all" ? sql`` : sql`and site_id in ${sqlList(ids)}`}`),
-    ).then((rows) => rows.map((p) => ({ lineKey: p.lineKey, amountMinor: BigInt(p.amount), paidOn: p.paidOn }))),
+    arrayRows(
+      tx,
+      `select line_key, amount_minor::text, paid_on::text from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      siteIds === "all" ? [studyId] : [studyId, ids],
+    ).then((rows) => rows.map((r) => ({ lineKey: r[0]!, amountMinor: BigInt(r[1]!), paidOn: r[2]! }))),
   ]);
 
   const snapshot: PaymentScheduleSnapshot = buildSnapshot({ asOf, sites: siteRows, siteSteps: steps, versions, invoices, subjects: subjectRows, visits: visitRows, payments });

@@ -161,6 +161,18 @@ describe("payment schedule properties (fast-check)", () => {
     );
   });
 
+  it("totals only (lines: false) gives the same totals, cycles, holdback, pending and unmatched payments as the full schedule", () => {
+    fc.assert(
+      fc.property(studyArb, fc.boolean(), (study, inRun) => {
+        const snap = buildSnapshot(study);
+        const full = computePaymentSchedule(snap);
+        const withRun = inRun ? { ...snap, inPaymentRun: full.lines.slice(0, 2).map((l) => l.key) } : snap;
+        expect(computePaymentSchedule(withRun, { lines: false })).toEqual({ ...computePaymentSchedule(withRun), lines: [] });
+      }),
+      { numRuns: 200, seed: 11 },
+    );
+  });
+
   it("adding a payment never changes earned amounts", () => {
     fc.assert(
       fc.property(studyArb, fc.nat(), fc.bigInt({ min: 1n, max: 5_000_000n }), (study, pick, amount) => {
