@@ -186,8 +186,7 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
   const inRun = new Set(snapshot.inPaymentRun ?? []);
   const lines: EarnedLine[] = [];
 
-  // Sites one after the other: a site's lines are built, then settled and added up (pending events
-  // come out in the same order either way).
+  // Sites one after the other (pending events come out in site order).
   const cycleSummaries: CycleSummary[] = [];
   const siteTotals: SiteTotals[] = [];
   const holdback: HoldbackLedger[] = [];
@@ -195,12 +194,13 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
   for (const input of siteInputs.values()) {
     const { site, asOf } = input;
     const acc = new SiteAccumulator(asOf, inRun);
+    // The sums do not depend on the order of the lines: without lines, each is added up as it is built.
     if (keepLines) {
       for (const l of buildSiteLines(input, prices, cycles, payments, pending)) {
         acc.add(l);
         lines.push(l);
       }
-    } else buildSiteLines(input, prices, cycles, payments, pending, (l) => acc.add(l));
+    } else buildSiteLines(input, prices, cycles, payments, pending, (l) => acc.add(l), false);
 
     const accs = [...acc.cycles.values()].flatMap((m) => [...m.values()]);
     // By cycle start, due date, then label (a month and a quarter may share both).

@@ -112,10 +112,11 @@ export function buildSiteLines(
   cycles: CycleBook,
   payments: PaymentIndex,
   pending: PendingEvent[],
-  sink: ((line: EarnedLine) => void) | null = null,
+  onLine: ((line: EarnedLine) => void) | null = null,
+  keep = true,
 ): EarnedLine[] {
-  // With a sink, each line goes to it as soon as it is built and none is kept (totals only): the
-  // lines then arrive unsorted, and nothing of them outlives the call.
+  // Each line goes to onLine as soon as it is built (in build order, while it is still in the cache);
+  // keep = false returns no lines (totals only), so nothing of them outlives the call.
   let visitWithheld = 0n;
   const { site, asOf, versions } = input;
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
@@ -267,11 +268,9 @@ export function buildSiteLines(
     const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
     const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as Amounts), cycles, false, null, null, null);
     payments.applyTo(line, visit.id, asOf);
-    if (sink === null) lines.push(line);
-    else {
-      if (line.holdbackMinor !== 0n) visitWithheld += line.holdbackMinor;
-      sink(line);
-    }
+    if (line.holdbackMinor !== 0n) visitWithheld += line.holdbackMinor;
+    if (onLine !== null) onLine(line);
+    if (keep) lines.push(line);
   }
 
   // Pass-through invoices.
@@ -299,7 +298,6 @@ export function buildSiteLines(
   if (closedOutOn) {
     let withheld = visitWithheld;
     for (const d of drafts) withheld += d.amounts.holdbackMinor;
-    for (const l of lines) withheld += l.holdbackMinor;
     const v = versionAt(versions, closedOutOn);
     if (v && withheld !== 0n) {
       drafts.push({
@@ -318,10 +316,10 @@ export function buildSiteLines(
   for (const d of drafts) {
     const line = newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null);
     payments.applyTo(line, null, asOf);
-    if (sink === null) lines.push(line);
-    else sink(line);
+    if (onLine !== null) onLine(line);
+    if (keep) lines.push(line);
   }
-  return sink === null ? sortLines(lines) : lines;
+  return keep ? sortLines(lines) : lines;
 }
 
 /** A line with every field in the same order (one object shape), unsettled. */

@@ -31,15 +31,17 @@ type Queryable = { query: (config: { text: string; values: unknown[]; rowMode: "
 
 /**
  * Rows as arrays, straight from pg (no per-row objects keyed by column name, no ORM mapping): the
- * three large reads are 10,000s of rows. Every column is selected as text. Runs on the handle's own
- * client: the pool outside a transaction (so concurrent reads take separate connections), the
- * transaction's connection inside one.
+ * three large reads are 10,000s of rows. Columns come as text (dates cast; uuids arrive as text).
+ * Runs on the handle's own client: the pool outside a transaction (so concurrent reads take
+ * separate connections), the transaction's connection inside one.
  */
 async function arrayRows(tx: Tx, text: string, values: unknown[]): Promise<(string | null)[][]> {
   const client = (tx as unknown as { session?: { client?: Queryable } }).session?.client;
   if (!client || typeof client.query !== "function") throw new Error("loadScheduleSnapshot: the database handle exposes no pg client");
   return (await client.query({ text, values, rowMode: "array" })).rows as (string | null)[][];
 }
+/** Field separator of the one-column reads (never in a uuid, date, enum or amount). */
+const US = "\u001f";
 const ENROLLED_STATES: SubjectStatus[] = ["enrolled", "implanted", "follow_up"];
 
 export async function loadScheduleSnapshot(
@@ -67,27 +69,49 @@ export async function loadScheduleSnapshot(
     // The three large reads skip the query builder: plain rows as arrays, dates as text.
     arrayRows(
       tx,
-      `select id::text, site_id::text, code, status::text, consent_date::text, screening_date::text, enrolment_date::text, implant_date::text, ended_on::text
+      `select id, site_id, code, status::text, consent_date::text, screening_date::text, enrolment_date::text, implant_date::text, ended_on::text
         from subjects where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) =>
       rows.map((r): SubjectRow => ({ id: r[0]!, siteId: r[1]!, code: r[2]!, status: r[3] as SubjectStatus, consentDate: r[4]!, screeningDate: r[5] ?? null, enrolmentDate: r[6] ?? null, implantDate: r[7] ?? null, endedOn: r[8] ?? null })),
     ),
+    // Visits and payments come as one text column per row, fields joined by a unit separator (U+001F)
+    // and the free-text field last: pg then parses one field per row instead of eight, the loader's
+    // largest cost. A missed visit earns nothing and the engine skips it: only the projection reads them.
     arrayRows(
       tx,
-      `select vr.id::text, vr.subject_id::text, vr.visit_code, ${projection ? "vr.version_id::text" : "null"}, vr.outcome::text, vr.actual_date::text, vr.data_entered_on::text, vr.verified_on::text
+      `select concat_ws(E'\\x1f', vr.id, vr.subject_id, ${projection ? "vr.version_id" : "''"}, vr.outcome, vr.actual_date, coalesce(vr.data_entered_on::text, ''), coalesce(vr.verified_on::text, ''), vr.visit_code)
         from visit_records vr join subjects su on su.id = vr.subject_id
-        where su.study_id = $1 and vr.actual_date is not null ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}`,
+        where su.study_id = $1 and vr.actual_date is not null ${projection ? "" : "and vr.outcome = 'done'"} ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) =>
-      rows.map((r): VisitRow => ({ id: r[0]!, subjectId: r[1]!, visitCode: r[2]!, versionId: r[3]!, outcome: r[4] as VisitRow["outcome"], actualDate: r[5] ?? null, dataEnteredOn: r[6] ?? null, verifiedOn: r[7] ?? null })),
+      rows.map((r): VisitRow => {
+        const f = (r[0] as string).split(US);
+        return {
+          id: f[0]!,
+          subjectId: f[1]!,
+          versionId: f[2]!,
+          outcome: f[3] as VisitRow["outcome"],
+          actualDate: f[4] || null,
+          dataEnteredOn: f[5] || null,
+          verifiedOn: f[6] || null,
+          visitCode: f.length === 8 ? f[7]! : f.slice(7).join(US),
+        };
+      }),
     ),
     tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
     arrayRows(
       tx,
-      `select line_key, amount_minor::text, paid_on::text from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      `select concat_ws(E'\\x1f', amount_minor, paid_on, line_key) from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
-    ).then((rows) => rows.map((r) => ({ lineKey: r[0]!, amountMinor: BigInt(r[1]!), paidOn: r[2]! }))),
+    ).then((rows) =>
+      rows.map((r) => {
+        const s = r[0] as string;
+        const a = s.indexOf(US);
+        const b = s.indexOf(US, a + 1);
+        return { lineKey: s.slice(b + 1), amountMinor: BigInt(s.slice(0, a)), paidOn: s.slice(a + 1, b) };
+      }),
+    ),
   ]);
 
   const snapshot: PaymentScheduleSnapshot = buildSnapshot({ asOf, sites: siteRows, siteSteps: steps, versions, invoices, subjects: subjectRows, visits: visitRows, payments });
