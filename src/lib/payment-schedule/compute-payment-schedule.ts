@@ -169,8 +169,13 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
     input.subjects.push(s);
     subjectById.set(s.id, { subject: s, input });
   }
+  // A subject's visits usually come one after another: the previous lookup is reused.
+  let lastSubjectId: string | null = null;
+  let lastFound: { subject: Subject; input: SiteInput } | undefined;
   for (const v of snapshot.visits) {
-    const found = subjectById.get(v.subjectId);
+    const found = v.subjectId === lastSubjectId ? lastFound : subjectById.get(v.subjectId);
+    lastSubjectId = v.subjectId;
+    lastFound = found;
     if (!found) {
       pending.push({ key: `visit:${v.id}`, siteId: "", serviceDate: v.serviceDate, reason: "unknown_subject", detail: `Visit ${v.id} belongs to no subject in the snapshot` });
       continue;

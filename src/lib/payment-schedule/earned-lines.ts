@@ -30,18 +30,40 @@ export function versionAt(versions: readonly BudgetVersion[], date: string): Bud
 export class CycleBook {
   private readonly periods = new Map<number, CyclePeriod>();
   private readonly dues = new Map<CyclePeriod, Map<number, string>>();
+  /** Period and due date by (period key, net days) in one numeric key: one lookup per line. */
+  private readonly slots = new Map<number, { period: CyclePeriod; due: string }>();
 
-  period(date: string, cycle: PaymentCycle): CyclePeriod {
+  private static key(date: string, cycle: PaymentCycle): number {
     // Numeric key (year·12 + month; −(year·4 + quarter) − 1 for quarters): nothing to hash per line.
     const year = (date.charCodeAt(0) - 48) * 1000 + (date.charCodeAt(1) - 48) * 100 + (date.charCodeAt(2) - 48) * 10 + (date.charCodeAt(3) - 48);
     const month = (date.charCodeAt(5) - 48) * 10 + (date.charCodeAt(6) - 48);
-    const k = cycle === "monthly" ? year * 12 + month : -(year * 4 + Math.floor((month - 1) / 3)) - 1;
+    return cycle === "monthly" ? year * 12 + month : -(year * 4 + Math.floor((month - 1) / 3)) - 1;
+  }
+
+  period(date: string, cycle: PaymentCycle): CyclePeriod {
+    const k = CycleBook.key(date, cycle);
     let p = this.periods.get(k);
     if (!p) {
       p = cyclePeriodOf(date, cycle);
       this.periods.set(k, p);
     }
     return p;
+  }
+
+  /** The period of a date and its due date after netDays (0–365, as the snapshot schema allows). */
+  slot(date: string, cycle: PaymentCycle, netDays: number): { period: CyclePeriod; due: string } {
+    if (!Number.isInteger(netDays) || netDays < 0 || netDays > 511) {
+      const period = this.period(date, cycle);
+      return { period, due: this.due(period, netDays) };
+    }
+    const k = CycleBook.key(date, cycle) * 512 + netDays;
+    let s = this.slots.get(k);
+    if (!s) {
+      const period = this.period(date, cycle);
+      s = { period, due: this.due(period, netDays) };
+      this.slots.set(k, s);
+    }
+    return s;
   }
 
   due(period: CyclePeriod, netDays: number): string {
@@ -339,7 +361,7 @@ function newLine(
   capLiftedOn: string | null,
   capLiftedBySubjectId: string | null,
 ): EarnedLine {
-  const cycle = cycles.period(triggerDate, version.cycle);
+  const slot = cycles.slot(triggerDate, version.cycle, version.netDays);
   return {
     key,
     siteId: site.id,
@@ -359,8 +381,8 @@ function newLine(
     cappedFeeMinor,
     capLiftedOn,
     capLiftedBySubjectId,
-    cycle,
-    dueDate: cycles.due(cycle, version.netDays),
+    cycle: slot.period,
+    dueDate: slot.due,
     paidMinor: 0n,
     outstandingMinor: amounts.netMinor,
     unappliedMinor: 0n,
