@@ -9,6 +9,7 @@ import { DataTable } from "@/components/data-table";
 import { apiFetch } from "@/lib/api/client";
 import type { AcknowledgementState, AcknowledgementStatus } from "@/lib/acknowledgements/state";
 import { AckStatusChip } from "./ack-status-chip";
+import { FilterSelect } from "@/components/filter-select";
 
 type Row = {
   requestId: string;
@@ -63,28 +64,8 @@ export function ComplianceMatrix({
   return (
     <div className="space-y-3" data-testid="compliance-matrix">
       <div className="flex flex-wrap items-end gap-3">
-        <label className="field">
-          <span>Site</span>
-          <select className="input" value={siteId} onChange={(e) => setSiteId(e.target.value)} data-testid="matrix-site">
-            <option value="">All your sites</option>
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.code}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="field">
-          <span>Version</span>
-          <select className="input" value={versionId} onChange={(e) => setVersionId(e.target.value)}>
-            <option value="">All versions</option>
-            {versions.map((v) => (
-              <option key={v.id} value={v.id}>
-                {v.versionLabel}
-              </option>
-            ))}
-          </select>
-        </label>
+        <FilterSelect label="Site" value={siteId} onChange={setSiteId} allLabel="All your sites" options={sites.map((x) => [x.id, x.code] as const)} testId="matrix-site" />
+        <FilterSelect label="Version" value={versionId} onChange={setVersionId} allLabel="All versions" options={versions.map((v) => [v.id, v.versionLabel] as const)} />
         <label className="field">
           <span>State</span>
           <select className="input" value={state} onChange={(e) => setState(e.target.value)} data-testid="matrix-state">

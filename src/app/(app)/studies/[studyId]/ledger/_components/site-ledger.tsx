@@ -9,6 +9,7 @@ import { describeLine, lineKindLabels, lineStateLabels } from "@/lib/ledger/line
 import type { EarnedLine, LineState } from "@/lib/payment-schedule";
 import { StatusChip, type Tone } from "@/components/status-chip";
 import { fmt } from "./amounts";
+import { FilterSelect } from "@/components/filter-select";
 
 // JSON turns bigint into strings: the line as the client receives it.
 type Wire<T> = { [K in keyof T]: T[K] extends bigint ? string : T[K] extends bigint | null ? string | null : T[K] };
@@ -91,39 +92,9 @@ export function SiteLedger({ studyId, siteId }: { studyId: string; siteId: strin
   return (
     <div className="space-y-3" data-testid="site-ledger">
       <div className="flex flex-wrap items-end gap-3" role="search" aria-label="Filter the ledger">
-        <label className="field">
-          <span>Cycle</span>
-          <select className="input" value={cycle} onChange={(e) => setCycle(e.target.value)} data-testid="ledger-cycle-filter">
-            <option value="">All cycles</option>
-            {cycles.map((c) => (
-              <option key={c} value={c}>
-                {c}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="field">
-          <span>Kind</span>
-          <select className="input" value={kind} onChange={(e) => setKind(e.target.value)}>
-            <option value="">All kinds</option>
-            {Object.entries(lineKindLabels).map(([k, label]) => (
-              <option key={k} value={k}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="field">
-          <span>State</span>
-          <select className="input" value={state} onChange={(e) => setState(e.target.value)}>
-            <option value="">All states</option>
-            {Object.entries(lineStateLabels).map(([k, label]) => (
-              <option key={k} value={k}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
+        <FilterSelect label="Cycle" value={cycle} onChange={setCycle} allLabel="All cycles" options={cycles} testId="ledger-cycle-filter" />
+        <FilterSelect label="Kind" value={kind} onChange={setKind} allLabel="All kinds" options={Object.entries(lineKindLabels)} />
+        <FilterSelect label="State" value={state} onChange={setState} allLabel="All states" options={Object.entries(lineStateLabels)} />
         <label className="field">
           <span>Search</span>
           <input className="input" value={text} onChange={(e) => setText(e.target.value)} placeholder="Subject, visit, milestone" />

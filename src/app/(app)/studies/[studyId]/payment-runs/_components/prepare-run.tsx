@@ -6,6 +6,7 @@ import { useMemo, useState } from "react";
 import { apiFetch } from "@/lib/api/client";
 import { formatMinor } from "@/lib/money";
 import { studyPath } from "@/lib/nav";
+import { FilterSelect } from "@/components/filter-select";
 
 type DueLine = { key: string; siteId: string; currency: string; kind: string; description: string; serviceDate: string; dueDate: string; cycle: string; amountMinor: string; overdue: boolean };
 
@@ -49,26 +50,8 @@ export function PrepareRun({ studyId, sites }: { studyId: string; sites: { id: s
     <section className="card space-y-3" aria-labelledby="prepare-heading">
       <h2 id="prepare-heading">Prepare a run</h2>
       <div className="flex flex-wrap gap-3">
-        <label className="field">
-          <span>Cycle</span>
-          <select className="input" value={cycle} onChange={(e) => setCycle(e.target.value)} aria-label="Cycle">
-            <option value="">All due</option>
-            {(due.data?.cycles ?? []).map((c) => (
-              <option key={c}>{c}</option>
-            ))}
-          </select>
-        </label>
-        <label className="field">
-          <span>Site</span>
-          <select className="input" value={siteId} onChange={(e) => setSiteId(e.target.value)} aria-label="Site">
-            <option value="">All sites</option>
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.code}
-              </option>
-            ))}
-          </select>
-        </label>
+        <FilterSelect label="Cycle" value={cycle} onChange={setCycle} allLabel="All due" options={due.data?.cycles ?? []} />
+        <FilterSelect label="Site" value={siteId} onChange={setSiteId} allLabel="All sites" options={sites.map((x) => [x.id, x.code] as const)} />
         <label className="field">
           <span>Currency</span>
           <select className="input" value={currency} onChange={(e) => setCurrency(e.target.value)} aria-label="Currency">
