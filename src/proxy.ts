@@ -5,5 +5,5 @@ import { withAuth } from "next-auth/middleware";
 export default withAuth({ pages: { signIn: "/sign-in" } });
 
 export const config = {
-  matcher: ["/((?!api/|_next/|sign-in|invitation/|favicon.ico|robots.txt).*)"],
+  matcher: ["/((?!api/|_next/|sign-in|invitation/|favicon.svg|robots.txt).*)"],
 };

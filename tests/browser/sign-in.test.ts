@@ -26,6 +26,14 @@ describe("signed out", () => {
     expect(res.headers.get("location")).toMatch(/\/sign-in/);
   });
 
+  it("serves the public files without sign-in, and asks robots to stay away", async () => {
+    const robots = await fetch(`${appUrl()}/robots.txt`, { redirect: "manual" });
+    expect(robots.status).toBe(200);
+    expect(await robots.text()).toContain("Disallow: /");
+    const icon = await fetch(`${appUrl()}/favicon.svg`, { redirect: "manual" });
+    expect(icon.status).toBe(200);
+  });
+
   it("answers an API request with 401", async () => {
     const res = await fetch(`${appUrl()}/api/v1/studies`);
     expect(res.status).toBe(401);
