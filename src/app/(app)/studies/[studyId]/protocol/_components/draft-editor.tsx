@@ -15,6 +15,7 @@ import { EditorToolbar } from "./editor-toolbar";
 import { RedlineView } from "./redline-view";
 import { SummaryEditor } from "./summary-editor";
 import { parseRows, toRows, VisitScheduleEditor, type VisitRow } from "./visit-schedule-editor";
+import { ProblemList } from "@/components/problem-list";
 
 type Version = {
   id: string;
@@ -378,20 +379,7 @@ export function DraftEditor({ studyId, initial, parent }: { studyId: string; ini
         <button type="button" className="btn" onClick={() => void submit()} disabled={submitting || state === "conflict"}>
           {submitting ? "Submitting…" : "Submit for review"}
         </button>
-        {submitProblems && (
-          <div role="alert" className="text-sm text-brick" data-testid="submit-problems">
-            <p>{submitProblems.message}</p>
-            {submitProblems.fields && (
-              <ul className="list-disc pl-5">
-                {Object.values(submitProblems.fields)
-                  .flat()
-                  .map((m, i) => (
-                    <li key={i}>{m}</li>
-                  ))}
-              </ul>
-            )}
-          </div>
-        )}
+        {submitProblems && <ProblemList problem={submitProblems} testId="submit-problems" />}
       </section>
     </div>
   );

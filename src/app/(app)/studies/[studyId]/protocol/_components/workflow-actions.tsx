@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { apiFetch, ApiError } from "@/lib/api/client";
+import { ProblemList } from "@/components/problem-list";
 
 type Action = "submit" | "reopen" | "return" | "approve" | "release";
 
@@ -53,20 +54,7 @@ export function WorkflowActions({ versionId, versionLabel, actions }: { versionI
           </button>
         ))}
       </div>
-      {error && (
-        <div role="alert" className="text-sm text-brick">
-          <p>{error.message}</p>
-          {error.fields && (
-            <ul className="list-disc pl-5">
-              {Object.values(error.fields)
-                .flat()
-                .map((m, i) => (
-                  <li key={i}>{m}</li>
-                ))}
-            </ul>
-          )}
-        </div>
-      )}
+      {error && <ProblemList problem={error} />}
     </section>
   );
 }
