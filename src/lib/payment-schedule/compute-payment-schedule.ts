@@ -3,6 +3,7 @@ import { localDate } from "./calendar";
 import { MoneySum } from "./money-sum";
 import { PaymentIndex } from "./payment-index";
 import { buildSiteLines, CycleBook, type SiteInput } from "./earned-lines";
+import type { ScheduleLine } from "./line";
 import { PriceBook } from "./pricing";
 import { computeProjection } from "./projection";
 import type {
@@ -68,88 +69,67 @@ class SiteAccumulator {
   releaseLineKey: string | null = null;
   private lastCycle: CycleAcc | null = null;
 
-  constructor(
-    private readonly asOf: string,
-    private readonly inRun: ReadonlySet<string>,
-  ) {}
+  constructor(private readonly inRun: ReadonlySet<string>) {}
 
-  add(l: EarnedLine): void {
-    if (this.inRun.size > 0 && this.inRun.has(l.key)) l.inPaymentRun = true;
-    if (l.paidMinor > l.netMinor) {
-      l.unappliedMinor = l.paidMinor - l.netMinor;
-      l.paidMinor = l.netMinor;
-    }
-    l.outstandingMinor = l.paidMinor === 0n ? l.netMinor : l.paidMinor === l.netMinor ? 0n : l.netMinor - l.paidMinor;
-    l.partiallyPaid = l.paidMinor > 0n && l.outstandingMinor > 0n;
-    const overdue = l.outstandingMinor > 0n && l.dueDate < this.asOf;
-    l.state = l.netMinor === 0n && l.overCap ? "not_payable" : l.outstandingMinor === 0n ? "paid" : overdue ? "overdue" : "outstanding";
+  add(l: ScheduleLine): void {
+    if (this.inRun.size > 0 && this.inRun.has(l.key)) l.markInPaymentRun();
+    const a = l.amounts;
+    const paid = l.paidMinor;
+    const outstanding = l.outstandingMinor;
+    const unapplied = l.unappliedMinor;
+    const overdue = l.overdue;
+    // Numbers already at hand for the usual cases (nothing paid, or paid in full).
+    const p = paid === 0n ? 0 : paid === a.netMinor ? a.net : Number(paid);
+    const out = outstanding === 0n ? 0 : outstanding === a.netMinor ? a.net : Number(outstanding);
 
-    const h = Number(l.holdbackMinor);
-    if (l.unappliedMinor !== 0n) this.unapplied.add(l.unappliedMinor);
-    if (l.holdbackMinor < 0n) {
-      this.released.add(-l.holdbackMinor);
+    if (unapplied !== 0n) this.unapplied.add(unapplied);
+    if (a.holdbackMinor < 0n) {
+      this.released.add(-a.holdbackMinor);
       this.releaseLineKey = l.key;
-    } else this.withheld.add(l.holdbackMinor, h);
+    } else this.withheld.add(a.holdbackMinor, a.holdback);
 
     // Lines mostly follow a line of the same cycle (sorted by trigger date, or a subject's visits).
-    let c: CycleAcc | undefined = this.lastCycle !== null && this.lastCycle.period === l.cycle && this.lastCycle.dueDate === l.dueDate ? this.lastCycle : undefined;
+    const period = l.cycle;
+    const dueDate = l.dueDate;
+    let c: CycleAcc | undefined = this.lastCycle !== null && this.lastCycle.period === period && this.lastCycle.dueDate === dueDate ? this.lastCycle : undefined;
     if (!c) {
-      let byDue = this.cycles.get(l.cycle);
+      let byDue = this.cycles.get(period);
       if (!byDue) {
         byDue = new Map();
-        this.cycles.set(l.cycle, byDue);
+        this.cycles.set(period, byDue);
       }
-      c = byDue.get(l.dueDate);
+      c = byDue.get(dueDate);
       if (!c) {
-        c = { period: l.cycle, dueDate: l.dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
-        byDue.set(l.dueDate, c);
+        c = { period, dueDate, lineCount: 0, gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
+        byDue.set(dueDate, c);
       }
       this.lastCycle = c;
     }
-    const out = Number(l.outstandingMinor);
     c.lineCount++;
-    c.gross.add(l.grossMinor, Number(l.grossMinor));
-    c.overhead.add(l.overheadMinor, Number(l.overheadMinor));
-    c.holdback.add(l.holdbackMinor, h);
-    c.net.add(l.netMinor, Number(l.netMinor));
-    c.paid.add(l.paidMinor, Number(l.paidMinor));
-    c.outstanding.add(l.outstandingMinor, out);
-    if (overdue) c.overdue.add(l.outstandingMinor, out);
+    c.gross.add(a.grossMinor, a.gross);
+    c.overhead.add(a.overheadMinor, a.overhead);
+    c.holdback.add(a.holdbackMinor, a.holdback);
+    c.net.add(a.netMinor, a.net);
+    c.paid.add(paid, p);
+    c.outstanding.add(outstanding, out);
+    if (overdue) c.overdue.add(outstanding, out);
 
-    if (l.holdbackMinor !== 0n) {
-      let hb = this.ledgerByCycle.get(l.cycle.label);
+    if (a.holdbackMinor !== 0n) {
+      let hb = this.ledgerByCycle.get(period.label);
       if (!hb) {
-        hb = { label: l.cycle.label, withheld: new MoneySum(), released: new MoneySum() };
-        this.ledgerByCycle.set(l.cycle.label, hb);
+        hb = { label: period.label, withheld: new MoneySum(), released: new MoneySum() };
+        this.ledgerByCycle.set(period.label, hb);
       }
-      if (l.holdbackMinor > 0n) hb.withheld.add(l.holdbackMinor, h);
-      else hb.released.add(-l.holdbackMinor);
+      if (a.holdbackMinor > 0n) hb.withheld.add(a.holdbackMinor, a.holdback);
+      else hb.released.add(-a.holdbackMinor);
     }
   }
 }
 
-export interface ComputeOptions {
-  /**
-   * false: totals only — `lines` comes back empty and no line is kept or sorted (every total, cycle,
-   * holdback ledger, pending event and unmatched payment is the same as with the lines).
-   */
-  lines?: boolean;
-}
-
-/**
- * The payment schedule of one site or a whole study: a pure, deterministic function of its snapshot
- * (no clock, no I/O). Lines come out by site (input order), then trigger date, then key.
- *
- * Payments: every payment dated on or before the site's asOf is applied to the line its key names, up to
- * the line's net; a partial payment leaves the line outstanding (or overdue) with `partiallyPaid`,
- * and anything paid beyond the net is `unapplied` (shown, not counted as paid), so that for every
- * line, site and currency: earned (gross + overhead) = paid + outstanding + held back.
- */
-export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, options: ComputeOptions = {}): PaymentSchedule {
-  const keepLines = options.lines !== false;
+/** Each site's budget versions, subjects, visits and invoices, in input order; strays go to pending. */
+function indexSnapshot(snapshot: PaymentScheduleSnapshot, pending: PendingEvent[]): Map<string, SiteInput> {
   const sites = snapshot.sites;
   const siteInputs = new Map<string, SiteInput>();
-  const pending: PendingEvent[] = [];
   for (const site of sites) {
     if (!isSupportedCurrency(site.currency)) throw new Error(`Site ${site.code}: currency ${site.currency} is not supported`);
     if (siteInputs.has(site.id)) throw new Error(`Site ${site.id} appears twice in the snapshot`);
@@ -184,12 +164,124 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
     found.input.visitSubjects.push(found.subject);
   }
   for (const inv of snapshot.passThroughInvoices ?? []) siteInputs.get(inv.siteId)?.invoices.push(inv);
+  return siteInputs;
+}
 
-  const prices = new PriceBook();
-  const cycles = new CycleBook();
-  const payments = new PaymentIndex(snapshot.payments ?? []);
-  const inRun = new Set(snapshot.inPaymentRun ?? []);
-  const lines: EarnedLine[] = [];
+/** The study-wide lookups every site's lines use. */
+interface Books {
+  prices: PriceBook;
+  cycles: CycleBook;
+  payments: PaymentIndex;
+  inRun: ReadonlySet<string>;
+}
+
+/**
+ * One site's lines, settled and added up by cycle; the site's totals are the sums of its cycles'
+ * (exact integer sums, so the order of the lines does not matter). Lines are appended to `lines`
+ * unless it is null (totals only).
+ */
+function settleSite(input: SiteInput, books: Books, lines: ScheduleLine[] | null, pending: PendingEvent[]): { cycles: CycleSummary[]; totals: SiteTotals; ledger: HoldbackLedger } {
+  const { site, asOf } = input;
+  const { prices, cycles, payments, inRun } = books;
+  const cycleSummaries: CycleSummary[] = [];
+  const acc = new SiteAccumulator(inRun);
+  // The sums do not depend on the order of the lines: without lines, each is added up as it is built.
+  if (lines !== null) {
+    const built = buildSiteLines(input, prices, cycles, payments, pending);
+    for (let i = 0; i < built.length; i++) {
+      const l = built[i] as ScheduleLine;
+      acc.add(l);
+      lines.push(l);
+    }
+  } else buildSiteLines(input, prices, cycles, payments, pending, (l) => acc.add(l), false);
+
+  const accs = [...acc.cycles.values()].flatMap((m) => [...m.values()]);
+  // By cycle start, due date, then label (a month and a quarter may share both).
+  accs.sort((a, b) =>
+    a.period.start < b.period.start ? -1 : a.period.start > b.period.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : a.period.label < b.period.label ? -1 : a.period.label > b.period.label ? 1 : 0,
+  );
+  const sums = { gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
+  let lineCount = 0;
+  for (const c of accs) {
+    const summary: CycleSummary = {
+      siteId: site.id,
+      currency: site.currency,
+      cycle: c.period,
+      dueDate: c.dueDate,
+      lineCount: c.lineCount,
+      grossMinor: c.gross.value,
+      overheadMinor: c.overhead.value,
+      holdbackMinor: c.holdback.value,
+      netMinor: c.net.value,
+      paidMinor: c.paid.value,
+      outstandingMinor: c.outstanding.value,
+      overdueMinor: c.overdue.value,
+    };
+    cycleSummaries.push(summary);
+    lineCount += c.lineCount;
+    sums.gross.add(summary.grossMinor);
+    sums.overhead.add(summary.overheadMinor);
+    sums.holdback.add(summary.holdbackMinor);
+    sums.net.add(summary.netMinor);
+    sums.paid.add(summary.paidMinor);
+    sums.outstanding.add(summary.outstandingMinor);
+    sums.overdue.add(summary.overdueMinor);
+  }
+  const withheld = acc.withheld.value;
+  const released = acc.released.value;
+  const totals: SiteTotals = {
+    siteId: site.id,
+    asOf,
+    currency: site.currency,
+    grossMinor: sums.gross.value,
+    overheadMinor: sums.overhead.value,
+    holdbackMinor: sums.holdback.value,
+    netMinor: sums.net.value,
+    earnedMinor: sums.gross.value + sums.overhead.value,
+    holdbackWithheldMinor: withheld,
+    holdbackReleasedMinor: released,
+    heldBackMinor: withheld - released,
+    paidMinor: sums.paid.value,
+    outstandingMinor: sums.outstanding.value,
+    overdueMinor: sums.overdue.value,
+    unappliedMinor: acc.unapplied.value,
+    lineCount,
+  };
+  const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: withheld, releasedMinor: released, balanceMinor: withheld - released, releaseLineKey: acc.releaseLineKey, byCycle: [] };
+  let running = 0n;
+  for (const h of [...acc.ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
+    const w = h.withheld.value;
+    const r = h.released.value;
+    running += w - r;
+    ledger.byCycle.push({ label: h.label, withheldMinor: w, releasedMinor: r, balanceMinor: running });
+  }
+  return { cycles: cycleSummaries, totals, ledger };
+}
+
+export interface ComputeOptions {
+  /**
+   * false: totals only — `lines` comes back empty and no line is kept or sorted (every total, cycle,
+   * holdback ledger, pending event and unmatched payment is the same as with the lines).
+   */
+  lines?: boolean;
+}
+
+/**
+ * The payment schedule of one site or a whole study: a pure, deterministic function of its snapshot
+ * (no clock, no I/O). Lines come out by site (input order), then trigger date, then key.
+ *
+ * Payments: every payment dated on or before the site's asOf is applied to the line its key names, up to
+ * the line's net; a partial payment leaves the line outstanding (or overdue) with `partiallyPaid`,
+ * and anything paid beyond the net is `unapplied` (shown, not counted as paid), so that for every
+ * line, site and currency: earned (gross + overhead) = paid + outstanding + held back.
+ */
+export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, options: ComputeOptions = {}): PaymentSchedule {
+  const keepLines = options.lines !== false;
+  const pending: PendingEvent[] = [];
+  const siteInputs = indexSnapshot(snapshot, pending);
+
+  const books: Books = { prices: new PriceBook(), cycles: new CycleBook(), payments: new PaymentIndex(snapshot.payments ?? []), inRun: new Set(snapshot.inPaymentRun ?? []) };
+  const lines: ScheduleLine[] = [];
 
   // Sites one after the other (pending events come out in site order).
   const cycleSummaries: CycleSummary[] = [];
@@ -197,89 +289,21 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
   const holdback: HoldbackLedger[] = [];
   const currencyTotals = new Map<string, CurrencyTotals>();
   for (const input of siteInputs.values()) {
-    const { site, asOf } = input;
-    const acc = new SiteAccumulator(asOf, inRun);
-    // The sums do not depend on the order of the lines: without lines, each is added up as it is built.
-    if (keepLines) {
-      for (const l of buildSiteLines(input, prices, cycles, payments, pending)) {
-        acc.add(l);
-        lines.push(l);
-      }
-    } else buildSiteLines(input, prices, cycles, payments, pending, (l) => acc.add(l), false);
-
-    const accs = [...acc.cycles.values()].flatMap((m) => [...m.values()]);
-    // By cycle start, due date, then label (a month and a quarter may share both).
-    accs.sort((a, b) =>
-      a.period.start < b.period.start ? -1 : a.period.start > b.period.start ? 1 : a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : a.period.label < b.period.label ? -1 : a.period.label > b.period.label ? 1 : 0,
-    );
-    const sums = { gross: new MoneySum(), overhead: new MoneySum(), holdback: new MoneySum(), net: new MoneySum(), paid: new MoneySum(), outstanding: new MoneySum(), overdue: new MoneySum() };
-    let lineCount = 0;
-    for (const c of accs) {
-      const summary: CycleSummary = {
-        siteId: site.id,
-        currency: site.currency,
-        cycle: c.period,
-        dueDate: c.dueDate,
-        lineCount: c.lineCount,
-        grossMinor: c.gross.value,
-        overheadMinor: c.overhead.value,
-        holdbackMinor: c.holdback.value,
-        netMinor: c.net.value,
-        paidMinor: c.paid.value,
-        outstandingMinor: c.outstanding.value,
-        overdueMinor: c.overdue.value,
-      };
-      cycleSummaries.push(summary);
-      lineCount += c.lineCount;
-      sums.gross.add(summary.grossMinor);
-      sums.overhead.add(summary.overheadMinor);
-      sums.holdback.add(summary.holdbackMinor);
-      sums.net.add(summary.netMinor);
-      sums.paid.add(summary.paidMinor);
-      sums.outstanding.add(summary.outstandingMinor);
-      sums.overdue.add(summary.overdueMinor);
-    }
-    const withheld = acc.withheld.value;
-    const released = acc.released.value;
-    const totals: SiteTotals = {
-      siteId: site.id,
-      asOf,
-      currency: site.currency,
-      grossMinor: sums.gross.value,
-      overheadMinor: sums.overhead.value,
-      holdbackMinor: sums.holdback.value,
-      netMinor: sums.net.value,
-      earnedMinor: sums.gross.value + sums.overhead.value,
-      holdbackWithheldMinor: withheld,
-      holdbackReleasedMinor: released,
-      heldBackMinor: withheld - released,
-      paidMinor: sums.paid.value,
-      outstandingMinor: sums.outstanding.value,
-      overdueMinor: sums.overdue.value,
-      unappliedMinor: acc.unapplied.value,
-      lineCount,
-    };
-    const ledger: HoldbackLedger = { siteId: site.id, currency: site.currency, withheldMinor: withheld, releasedMinor: released, balanceMinor: withheld - released, releaseLineKey: acc.releaseLineKey, byCycle: [] };
-    let running = 0n;
-    for (const h of [...acc.ledgerByCycle.values()].sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0))) {
-      const w = h.withheld.value;
-      const r = h.released.value;
-      running += w - r;
-      ledger.byCycle.push({ label: h.label, withheldMinor: w, releasedMinor: r, balanceMinor: running });
-    }
-    siteTotals.push(totals);
-    holdback.push(ledger);
+    const site = settleSite(input, books, keepLines ? lines : null, pending);
+    for (const c of site.cycles) cycleSummaries.push(c);
+    siteTotals.push(site.totals);
+    holdback.push(site.ledger);
     // Amounts in different currencies are never added together.
-    let ct = currencyTotals.get(site.currency);
+    let ct = currencyTotals.get(site.totals.currency);
     if (!ct) {
-      ct = { ...emptyTotals(site.currency), siteCount: 0 };
-      currencyTotals.set(site.currency, ct);
+      ct = { ...emptyTotals(site.totals.currency), siteCount: 0 };
+      currencyTotals.set(site.totals.currency, ct);
     }
-    addTotals(ct, totals);
+    addTotals(ct, site.totals);
     ct.siteCount++;
   }
 
-  const unmatchedPayments: UnmatchedPayment[] = payments.unmatched().map(({ payment: p, reason }) => ({ lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason }));
+  const unmatchedPayments: UnmatchedPayment[] = books.payments.unmatched().map(({ payment: p, reason }) => ({ lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason }));
 
   return {
     asOf: snapshot.asOf,

@@ -1,8 +1,10 @@
 import { cyclePeriodOf, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
+import { MoneySum } from "./money-sum";
+import { ScheduleLine, type CycleSlot, type EventLineDraft, type PricedAmounts, type SiteLineContext } from "./line";
 import type { PaymentIndex } from "./payment-index";
-import { PriceBook, pricePassThrough } from "./pricing";
-import type { Amounts, EarnedLine, LineKind, LineSource, PendingEvent } from "./result";
-import type { BudgetVersion, MilestoneFee, PassThroughInvoice, PaymentTrigger, RecordedVisit, ScreenFailureCap, Site, Subject } from "./snapshot";
+import { PriceBook, pricePassThrough, withNumbers } from "./pricing";
+import type { PendingEvent } from "./result";
+import type { BudgetVersion, MilestoneFee, PassThroughInvoice, RecordedVisit, ScreenFailureCap, Site, Subject } from "./snapshot";
 
 /** Everything about one site the line builders need, indexed once. */
 export interface SiteInput {
@@ -31,7 +33,7 @@ export class CycleBook {
   private readonly periods = new Map<number, CyclePeriod>();
   private readonly dues = new Map<CyclePeriod, Map<number, string>>();
   /** Period and due date by (period key, net days) in one numeric key: one lookup per line. */
-  private readonly slots = new Map<number, { period: CyclePeriod; due: string }>();
+  private readonly slots = new Map<number, CycleSlot>();
 
   private static key(date: string, cycle: PaymentCycle): number {
     // Numeric key (year·12 + month; −(year·4 + quarter) − 1 for quarters): nothing to hash per line.
@@ -51,7 +53,7 @@ export class CycleBook {
   }
 
   /** The period of a date and its due date after netDays (0–365, as the snapshot schema allows). */
-  slot(date: string, cycle: PaymentCycle, netDays: number): { period: CyclePeriod; due: string } {
+  slot(date: string, cycle: PaymentCycle, netDays: number): CycleSlot {
     if (!Number.isInteger(netDays) || netDays < 0 || netDays > 511) {
       const period = this.period(date, cycle);
       return { period, due: this.due(period, netDays) };
@@ -81,20 +83,6 @@ export class CycleBook {
   }
 }
 
-interface LineDraft {
-  key: string;
-  kind: LineKind;
-  source: LineSource;
-  serviceDate: string;
-  triggerDate: string;
-  trigger: PaymentTrigger | "event_date";
-  version: BudgetVersion;
-  amounts: Amounts;
-  overCap?: boolean;
-  cappedFeeMinor?: bigint;
-  capLiftedOn?: string;
-  capLiftedBySubjectId?: string;
-}
 
 function paidScreenFailuresAllowed(cap: ScreenFailureCap | null | undefined, enrolled: number): number {
   if (!cap) return Infinity;
@@ -108,7 +96,7 @@ function milestoneKey(siteId: string, m: Pick<MilestoneFee, "kind" | "n">): stri
   return m.kind === "nth_enrolled" ? `milestone:${siteId}:enrolled-${m.n}` : `milestone:${siteId}:${m.kind}`;
 }
 
-const ZERO: Amounts = { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n };
+const ZERO: PricedAmounts = withNumbers({ grossMinor: 0n, overheadMinor: 0n, holdbackMinor: 0n, netMinor: 0n });
 
 /**
  * Every line a site has earned by its asOf date, with the payments made against it added up
@@ -134,17 +122,19 @@ export function buildSiteLines(
   cycles: CycleBook,
   payments: PaymentIndex,
   pending: PendingEvent[],
-  onLine: ((line: EarnedLine) => void) | null = null,
+  onLine: ((line: ScheduleLine) => void) | null = null,
   keep = true,
-): EarnedLine[] {
+): ScheduleLine[] {
   // Each line goes to onLine as soon as it is built (in build order, while it is still in the cache);
   // keep = false returns no lines (totals only), so nothing of them outlives the call.
-  let visitWithheld = 0n;
+  // Added up as numbers while exact (one bigint per line would be 150,000 allocations).
+  const visitWithheld = new MoneySum();
   const { site, asOf, versions } = input;
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
-  const drafts: LineDraft[] = [];
-  const lines: EarnedLine[] = [];
+  const ctx: SiteLineContext = { site, asOf };
+  const drafts: EventLineDraft[] = [];
+  const lines: ScheduleLine[] = [];
 
   // Start-up fee and milestones.
   const activatedOn = site.activatedOn && site.activatedOn <= asOf ? site.activatedOn : null;
@@ -158,9 +148,12 @@ export function buildSiteLines(
         source: { event: "site_activation", id: site.id, description: "Start-up fee" },
         serviceDate: activatedOn,
         triggerDate: activatedOn,
-        trigger: "event_date",
         version: v,
         amounts: prices.price(v, v.startupFeeMinor, withholds(activatedOn)),
+        overCap: false,
+        cappedFeeMinor: null,
+        capLiftedOn: null,
+        capLiftedBySubjectId: null,
       });
   }
 
@@ -198,9 +191,12 @@ export function buildSiteLines(
       },
       serviceDate: date,
       triggerDate: date,
-      trigger: "event_date",
       version: v,
       amounts: prices.price(v, fee.amountMinor, withholds(date)),
+      overCap: false,
+      cappedFeeMinor: null,
+      capLiftedOn: null,
+      capLiftedBySubjectId: null,
     });
   }
 
@@ -212,14 +208,14 @@ export function buildSiteLines(
   capEvents.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.order - b.order || (a.subject.code < b.subject.code ? -1 : a.subject.code > b.subject.code ? 1 : 0)));
   let enrolled = 0;
   let paidFailures = 0;
-  const overCap: LineDraft[] = [];
+  const overCap: EventLineDraft[] = [];
   for (const e of capEvents) {
     if (e.order === 0) {
       enrolled++;
       const vE = versionAt(versions, e.date);
       // No budget in force on the enrolment date: the cap cannot be read, nothing is lifted.
       while (vE && overCap.length > 0 && paidFailures < paidScreenFailuresAllowed(vE.screenFailureCap, enrolled)) {
-        const d = overCap.shift() as LineDraft;
+        const d = overCap.shift() as EventLineDraft;
         paidFailures++;
         d.overCap = false;
         d.triggerDate = e.date;
@@ -236,17 +232,18 @@ export function buildSiteLines(
       continue;
     }
     if (v.screenFailureFeeMinor === 0n) continue;
-    const draft: LineDraft = {
+    const draft: EventLineDraft = {
       key,
       kind: "screen_failure",
       source: { event: "screen_failure", id: e.subject.id, subjectId: e.subject.id, subjectCode: e.subject.code },
       serviceDate: e.date,
       triggerDate: e.date,
-      trigger: "event_date",
       version: v,
       amounts: ZERO,
       overCap: true,
       cappedFeeMinor: v.screenFailureFeeMinor,
+      capLiftedOn: null,
+      capLiftedBySubjectId: null,
     };
     if (paidFailures < paidScreenFailuresAllowed(v.screenFailureCap, enrolled)) {
       paidFailures++;
@@ -257,23 +254,23 @@ export function buildSiteLines(
   }
 
   // Visits.
+  // (A visit's key is built only where it is needed: one string per visit adds up.)
   for (let vi = 0; vi < input.visits.length; vi++) {
     const visit = input.visits[vi] as RecordedVisit;
     if (visit.status !== "done") continue;
-    const key = `visit:${visit.id}`;
     const subject = input.visitSubjects[vi] as Subject;
     if (visit.serviceDate > asOf) {
-      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "after_as_of", detail: `Service date ${visit.serviceDate} is after ${asOf}` });
+      pending.push({ key: `visit:${visit.id}`, siteId: site.id, serviceDate: visit.serviceDate, reason: "after_as_of", detail: `Service date ${visit.serviceDate} is after ${asOf}` });
       continue;
     }
     const v = versionAt(versions, visit.serviceDate);
     if (!v) {
-      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_budget_in_effect", detail: `No budget version in effect on ${visit.serviceDate}` });
+      pending.push({ key: `visit:${visit.id}`, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_budget_in_effect", detail: `No budget version in effect on ${visit.serviceDate}` });
       continue;
     }
     const priced = prices.visit(v, visit.visitCode, true);
     if (priced === null) {
-      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_fee_for_visit_code", detail: `Budget version ${v.versionNumber} has no fee for visit ${visit.visitCode}` });
+      pending.push({ key: `visit:${visit.id}`, siteId: site.id, serviceDate: visit.serviceDate, reason: "no_fee_for_visit_code", detail: `Budget version ${v.versionNumber} has no fee for visit ${visit.visitCode}` });
       continue;
     }
     if (priced.grossMinor === 0n) continue;
@@ -282,15 +279,15 @@ export function buildSiteLines(
     else if (v.trigger === "monitor_verified") triggerDate = visit.verifiedOn;
     if (!triggerDate || triggerDate > asOf) {
       const waiting = v.trigger === "data_entered" ? "awaiting_data_entry" : "awaiting_verification";
-      pending.push({ key, siteId: site.id, serviceDate: visit.serviceDate, reason: waiting, detail: `Earned once ${v.trigger === "data_entered" ? "data are entered" : "a monitor verifies the visit"}` });
+      pending.push({ key: `visit:${visit.id}`, siteId: site.id, serviceDate: visit.serviceDate, reason: waiting, detail: `Earned once ${v.trigger === "data_entered" ? "data are entered" : "a monitor verifies the visit"}` });
       continue;
     }
     if (triggerDate < visit.serviceDate) triggerDate = visit.serviceDate;
     // Visits are the bulk of the lines: built directly, without an intermediate draft.
-    const source: LineSource = { event: "visit", id: visit.id, subjectId: subject.id, subjectCode: subject.code, visitCode: visit.visitCode };
-    const line = newLine(site, key, "visit", source, visit.serviceDate, triggerDate, v.trigger, v, withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as Amounts), cycles, false, null, null, null);
-    payments.applyTo(line, visit.id, asOf);
-    if (line.holdbackMinor !== 0n) visitWithheld += line.holdbackMinor;
+    const amounts = withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as PricedAmounts);
+    const line = ScheduleLine.ofVisit(ctx, visit, subject, triggerDate, v, amounts, cycles.slot(triggerDate, v.cycle, v.netDays));
+    payments.applyTo(line, null, visit.id, asOf);
+    if (amounts.holdback !== 0) visitWithheld.add(amounts.holdbackMinor, amounts.holdback);
     if (onLine !== null) onLine(line);
     if (keep) lines.push(line);
   }
@@ -310,15 +307,18 @@ export function buildSiteLines(
       source: { event: "invoice", id: inv.id, description: inv.description },
       serviceDate: inv.approvedOn,
       triggerDate: inv.approvedOn,
-      trigger: "event_date",
       version: v,
       amounts: pricePassThrough(inv.amountMinor),
+      overCap: false,
+      cappedFeeMinor: null,
+      capLiftedOn: null,
+      capLiftedBySubjectId: null,
     });
   }
 
   // Holdback release at close-out: everything withheld so far.
   if (closedOutOn) {
-    let withheld = visitWithheld;
+    let withheld = visitWithheld.value;
     for (const d of drafts) withheld += d.amounts.holdbackMinor;
     const v = versionAt(versions, closedOutOn);
     if (v && withheld !== 0n) {
@@ -328,69 +328,23 @@ export function buildSiteLines(
         source: { event: "close_out", id: site.id, description: "Release of holdback at close-out" },
         serviceDate: closedOutOn,
         triggerDate: closedOutOn,
-        trigger: "event_date",
         version: v,
-        amounts: { grossMinor: 0n, overheadMinor: 0n, holdbackMinor: -withheld, netMinor: withheld },
+        amounts: withNumbers({ grossMinor: 0n, overheadMinor: 0n, holdbackMinor: -withheld, netMinor: withheld }),
+        overCap: false,
+        cappedFeeMinor: null,
+        capLiftedOn: null,
+        capLiftedBySubjectId: null,
       });
     }
   }
 
   for (const d of drafts) {
-    const line = newLine(site, d.key, d.kind, d.source, d.serviceDate, d.triggerDate, d.trigger, d.version, d.amounts, cycles, d.overCap ?? false, d.cappedFeeMinor ?? null, d.capLiftedOn ?? null, d.capLiftedBySubjectId ?? null);
-    payments.applyTo(line, null, asOf);
+    const line = ScheduleLine.ofEvent(ctx, d, cycles.slot(d.triggerDate, d.version.cycle, d.version.netDays));
+    payments.applyTo(line, d.key, null, asOf);
     if (onLine !== null) onLine(line);
     if (keep) lines.push(line);
   }
   return keep ? sortLines(lines) : lines;
-}
-
-/** A line with every field in the same order (one object shape), unsettled. */
-function newLine(
-  site: Site,
-  key: string,
-  kind: LineKind,
-  source: LineSource,
-  serviceDate: string,
-  triggerDate: string,
-  trigger: PaymentTrigger | "event_date",
-  version: BudgetVersion,
-  amounts: Amounts,
-  cycles: CycleBook,
-  overCap: boolean,
-  cappedFeeMinor: bigint | null,
-  capLiftedOn: string | null,
-  capLiftedBySubjectId: string | null,
-): EarnedLine {
-  const slot = cycles.slot(triggerDate, version.cycle, version.netDays);
-  return {
-    key,
-    siteId: site.id,
-    currency: site.currency,
-    kind,
-    source,
-    serviceDate,
-    triggerDate,
-    trigger,
-    budgetVersionId: version.id,
-    budgetVersionNumber: version.versionNumber,
-    grossMinor: amounts.grossMinor,
-    overheadMinor: amounts.overheadMinor,
-    holdbackMinor: amounts.holdbackMinor,
-    netMinor: amounts.netMinor,
-    overCap,
-    cappedFeeMinor,
-    capLiftedOn,
-    capLiftedBySubjectId,
-    cycle: slot.period,
-    dueDate: slot.due,
-    paidMinor: 0n,
-    outstandingMinor: amounts.netMinor,
-    unappliedMinor: 0n,
-    lastPaidOn: null,
-    partiallyPaid: false,
-    inPaymentRun: false,
-    state: "outstanding",
-  };
 }
 
 /** yyyymmdd as an integer, read from the ISO date's characters. */
@@ -404,22 +358,22 @@ function dateOrdinal(iso: string): number {
 }
 
 /** Lines by trigger date, then key (numeric dates compare faster than strings). */
-function sortLines(lines: EarnedLine[]): EarnedLine[] {
+function sortLines(lines: ScheduleLine[]): ScheduleLine[] {
   const n = lines.length;
   const day = new Float64Array(n);
   const order = new Uint32Array(n);
   for (let i = 0; i < n; i++) {
-    day[i] = dateOrdinal((lines[i] as EarnedLine).triggerDate);
+    day[i] = dateOrdinal((lines[i] as ScheduleLine).triggerDate);
     order[i] = i;
   }
   order.sort((a, b) => {
     const d = (day[a] as number) - (day[b] as number);
     if (d !== 0) return d;
-    const ka = (lines[a] as EarnedLine).key;
-    const kb = (lines[b] as EarnedLine).key;
+    const ka = (lines[a] as ScheduleLine).key;
+    const kb = (lines[b] as ScheduleLine).key;
     return ka < kb ? -1 : ka > kb ? 1 : 0;
   });
-  const sorted: EarnedLine[] = new Array(n);
-  for (let i = 0; i < n; i++) sorted[i] = lines[order[i] as number] as EarnedLine;
+  const sorted: ScheduleLine[] = new Array(n);
+  for (let i = 0; i < n; i++) sorted[i] = lines[order[i] as number] as ScheduleLine;
   return sorted;
 }

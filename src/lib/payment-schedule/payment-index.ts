@@ -1,4 +1,4 @@
-import type { EarnedLine } from "./result";
+import type { ScheduleLine } from "./line";
 import type { Payment } from "./snapshot";
 
 const VISIT_PREFIX = "visit:";
@@ -29,10 +29,13 @@ export class PaymentIndex {
     }
   }
 
-  /** Add the payments dated on or before asOf to the line (paid may exceed net: clamped later). */
-  applyTo(line: EarnedLine, visitId: string | null, asOf: string): void {
+  /**
+   * Add the payments dated on or before asOf to the line, found by its key or, for a visit line, by
+   * its visit id (paid may exceed net: the line clamps it).
+   */
+  applyTo(line: ScheduleLine, key: string | null, visitId: string | null, asOf: string): void {
     if (this.payments.length === 0) return;
-    const first = visitId !== null ? this.byVisitId.get(visitId) : this.byKey.get(line.key);
+    const first = visitId !== null ? this.byVisitId.get(visitId) : this.byKey.get(key as string);
     for (let i = first ?? -1; i >= 0; i = this.next[i] as number) {
       const p = this.payments[i] as Payment;
       if (p.paidOn > asOf) {
@@ -40,8 +43,7 @@ export class PaymentIndex {
         continue;
       }
       this.state[i] = 1;
-      line.paidMinor = line.paidMinor === 0n ? p.amountMinor : line.paidMinor + p.amountMinor;
-      if (line.lastPaidOn === null || p.paidOn > line.lastPaidOn) line.lastPaidOn = p.paidOn;
+      line.applyPayment(p.amountMinor, p.paidOn);
     }
   }
 

@@ -1,4 +1,5 @@
 import { applyRateBps } from "@/lib/money";
+import type { PricedAmounts } from "./line";
 import type { Amounts } from "./result";
 import type { BudgetVersion } from "./snapshot";
 
@@ -11,15 +12,30 @@ export function priceFee(feeMinor: bigint, overheadBps: number, holdbackBps: num
   return { grossMinor: feeMinor, overheadMinor, holdbackMinor, netMinor: feeMinor + overheadMinor - holdbackMinor };
 }
 
+/** The amounts with their numbers, converted once per priced fee rather than once per line. */
+export function withNumbers(a: Amounts): PricedAmounts {
+  // A literal, not a spread: every priced fee gets the same object shape.
+  return {
+    grossMinor: a.grossMinor,
+    overheadMinor: a.overheadMinor,
+    holdbackMinor: a.holdbackMinor,
+    netMinor: a.netMinor,
+    gross: Number(a.grossMinor),
+    overhead: Number(a.overheadMinor),
+    holdback: Number(a.holdbackMinor),
+    net: Number(a.netMinor),
+  };
+}
+
 /** Prices by version and fee, computed once: most visits of a site share a handful of fees. */
 export class PriceBook {
-  private readonly withHoldback = new Map<BudgetVersion, Map<bigint, Amounts>>();
-  private readonly withoutHoldback = new Map<BudgetVersion, Map<bigint, Amounts>>();
+  private readonly withHoldback = new Map<BudgetVersion, Map<bigint, PricedAmounts>>();
+  private readonly withoutHoldback = new Map<BudgetVersion, Map<bigint, PricedAmounts>>();
 
-  private readonly visitsWithHoldback = new Map<BudgetVersion, Map<string, Amounts | null>>();
+  private readonly visitsWithHoldback = new Map<BudgetVersion, Map<string, PricedAmounts | null>>();
 
   /** The priced visit fee of a version (null when the version has no fee for the code), cached by code. */
-  visit(version: BudgetVersion, visitCode: string, holdback: boolean): Amounts | null {
+  visit(version: BudgetVersion, visitCode: string, holdback: boolean): PricedAmounts | null {
     if (!holdback) {
       const fee = version.visitFees[visitCode];
       return fee === undefined ? null : this.price(version, fee, false);
@@ -38,7 +54,7 @@ export class PriceBook {
     return amounts;
   }
 
-  price(version: BudgetVersion, feeMinor: bigint, holdback: boolean): Amounts {
+  price(version: BudgetVersion, feeMinor: bigint, holdback: boolean): PricedAmounts {
     const book = holdback ? this.withHoldback : this.withoutHoldback;
     let byFee = book.get(version);
     if (!byFee) {
@@ -47,7 +63,7 @@ export class PriceBook {
     }
     let amounts = byFee.get(feeMinor);
     if (!amounts) {
-      amounts = priceFee(feeMinor, version.overheadBps, holdback ? version.holdbackBps : 0);
+      amounts = withNumbers(priceFee(feeMinor, version.overheadBps, holdback ? version.holdbackBps : 0));
       byFee.set(feeMinor, amounts);
     }
     return amounts;
@@ -55,6 +71,6 @@ export class PriceBook {
 }
 
 /** Pass-through costs are reimbursed at cost: no overhead, nothing withheld (common practice). */
-export function pricePassThrough(amountMinor: bigint): Amounts {
-  return { grossMinor: amountMinor, overheadMinor: 0n, holdbackMinor: 0n, netMinor: amountMinor };
+export function pricePassThrough(amountMinor: bigint): PricedAmounts {
+  return withNumbers({ grossMinor: amountMinor, overheadMinor: 0n, holdbackMinor: 0n, netMinor: amountMinor });
 }

@@ -25,40 +25,44 @@ export interface LineSource {
   description?: string;
 }
 
+/**
+ * One earned line. The engine returns `ScheduleLine` objects (fields read through getters, `toJSON()`
+ * for the plain object); anything else may build plain `EarnedLine` objects (statements, tests).
+ */
 export interface EarnedLine {
   /** Stable key derived from the source event; payments and payment runs refer to it. */
-  key: string;
-  siteId: string;
-  currency: string;
-  kind: LineKind;
-  source: LineSource;
-  serviceDate: string;
-  triggerDate: string;
+  readonly key: string;
+  readonly siteId: string;
+  readonly currency: string;
+  readonly kind: LineKind;
+  readonly source: LineSource;
+  readonly serviceDate: string;
+  readonly triggerDate: string;
   /** The trigger that made the line earned; "event_date" for milestones, fees and invoices. */
-  trigger: PaymentTrigger | "event_date";
-  budgetVersionId: string;
-  budgetVersionNumber: number;
-  grossMinor: bigint;
-  overheadMinor: bigint;
-  holdbackMinor: bigint;
-  netMinor: bigint;
+  readonly trigger: PaymentTrigger | "event_date";
+  readonly budgetVersionId: string;
+  readonly budgetVersionNumber: number;
+  readonly grossMinor: bigint;
+  readonly overheadMinor: bigint;
+  readonly holdbackMinor: bigint;
+  readonly netMinor: bigint;
   /** A screen failure beyond the cap: zero-value until later enrolment lifts the cap. */
-  overCap: boolean;
+  readonly overCap: boolean;
   /** The fee the line would carry without the cap (screen failures only, else null). */
-  cappedFeeMinor: bigint | null;
+  readonly cappedFeeMinor: bigint | null;
   /** Set when an enrolment lifted the cap: that enrolment's date and subject. */
-  capLiftedOn: string | null;
-  capLiftedBySubjectId: string | null;
-  cycle: CyclePeriod;
-  dueDate: string;
-  paidMinor: bigint;
-  outstandingMinor: bigint;
+  readonly capLiftedOn: string | null;
+  readonly capLiftedBySubjectId: string | null;
+  readonly cycle: CyclePeriod;
+  readonly dueDate: string;
+  readonly paidMinor: bigint;
+  readonly outstandingMinor: bigint;
   /** Paid beyond the line's net: kept apart so the reconciliation stays exact. */
-  unappliedMinor: bigint;
-  lastPaidOn: string | null;
-  partiallyPaid: boolean;
-  inPaymentRun: boolean;
-  state: LineState;
+  readonly unappliedMinor: bigint;
+  readonly lastPaidOn: string | null;
+  readonly partiallyPaid: boolean;
+  readonly inPaymentRun: boolean;
+  readonly state: LineState;
 }
 
 export interface Amounts {
