@@ -347,33 +347,65 @@ export function buildSiteLines(
   return keep ? sortLines(lines) : lines;
 }
 
-/** yyyymmdd as an integer, read from the ISO date's characters. */
-function dateOrdinal(iso: string): number {
-  let n = 0;
-  for (let i = 0; i < 10; i++) {
-    const c = iso.charCodeAt(i);
-    if (c !== 45) n = n * 10 + (c - 48);
-  }
-  return n;
+/**
+ * A day index that keeps the order of ISO dates: year·372 + month·31 + day, read from the characters
+ * (not a count of days — months are taken as 31 days — but monotonic and dense enough to bucket).
+ */
+function daySlot(iso: string): number {
+  const year = (iso.charCodeAt(0) - 48) * 1000 + (iso.charCodeAt(1) - 48) * 100 + (iso.charCodeAt(2) - 48) * 10 + (iso.charCodeAt(3) - 48);
+  const month = (iso.charCodeAt(5) - 48) * 10 + (iso.charCodeAt(6) - 48);
+  const day = (iso.charCodeAt(8) - 48) * 10 + (iso.charCodeAt(9) - 48);
+  return year * 372 + month * 31 + day;
 }
 
-/** Lines by trigger date, then key (numeric dates compare faster than strings). */
-function sortLines(lines: ScheduleLine[]): ScheduleLine[] {
+function byKey(a: ScheduleLine, b: ScheduleLine): number {
+  const ka = a.key;
+  const kb = b.key;
+  return ka < kb ? -1 : ka > kb ? 1 : 0;
+}
+
+/**
+ * Lines by trigger date, then key: a counting sort on the date (a site's lines span a few years of
+ * days), then the lines of one day by key.
+ */
+export function sortLines(lines: ScheduleLine[]): ScheduleLine[] {
   const n = lines.length;
-  const day = new Float64Array(n);
-  const order = new Uint32Array(n);
+  if (n < 2) return lines;
+  const slot = new Int32Array(n);
+  let min = Infinity;
+  let max = -Infinity;
   for (let i = 0; i < n; i++) {
-    day[i] = dateOrdinal((lines[i] as ScheduleLine).triggerDate);
-    order[i] = i;
+    const d = daySlot((lines[i] as ScheduleLine).triggerDate);
+    slot[i] = d;
+    if (d < min) min = d;
+    if (d > max) max = d;
   }
-  order.sort((a, b) => {
-    const d = (day[a] as number) - (day[b] as number);
-    if (d !== 0) return d;
-    const ka = (lines[a] as ScheduleLine).key;
-    const kb = (lines[b] as ScheduleLine).key;
-    return ka < kb ? -1 : ka > kb ? 1 : 0;
-  });
+  const span = max - min + 1;
+  // Far-apart dates (not in real data; 100 years) would make the buckets wasteful: compare instead.
+  if (span > 37_200) {
+    const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => (slot[a] as number) - (slot[b] as number) || byKey(lines[a] as ScheduleLine, lines[b] as ScheduleLine));
+    return order.map((i) => lines[i] as ScheduleLine);
+  }
+  const start = new Int32Array(span + 1);
+  for (let i = 0; i < n; i++) {
+    const k = (slot[i] as number) - min + 1;
+    start[k] = (start[k] as number) + 1;
+  }
+  for (let d = 1; d <= span; d++) start[d] = (start[d] as number) + (start[d - 1] as number);
   const sorted: ScheduleLine[] = new Array(n);
-  for (let i = 0; i < n; i++) sorted[i] = lines[order[i] as number] as ScheduleLine;
+  const fill = start.slice(0, span);
+  for (let i = 0; i < n; i++) {
+    const d = (slot[i] as number) - min;
+    sorted[fill[d] as number] = lines[i] as ScheduleLine;
+    fill[d] = (fill[d] as number) + 1;
+  }
+  // Lines of the same day, by key (usually none or a few).
+  for (let d = 0; d < span; d++) {
+    const from = start[d] as number;
+    const to = start[d + 1] as number;
+    if (to - from < 2) continue;
+    const day = sorted.slice(from, to).sort(byKey);
+    for (let i = 0; i < day.length; i++) sorted[from + i] = day[i] as ScheduleLine;
+  }
   return sorted;
 }

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { computePaymentSchedule, type EarnedLine } from "@/lib/payment-schedule";
 import { ScheduleLine } from "@/lib/payment-schedule/line";
 import { generateStudy } from "../../../scripts/bench/generate-study";
+import { budget, site, snapshot } from "./fixtures";
 
 // The engine's lines keep references and read every field through getters; what leaves the server
 // is their plain form. These checks hold that form to the EarnedLine contract.
@@ -67,5 +68,19 @@ describe("schedule lines", () => {
     expect(() => {
       (l as { netMinor: bigint }).netMinor = 1n;
     }).toThrow(TypeError);
+  });
+
+  it("orders lines by trigger date then key also when they are more than a century apart (the comparison path)", () => {
+    const v = (id: string, serviceDate: string) => ({ id, subjectId: "a", visitCode: "V1", serviceDate, status: "done" as const });
+    const out = computePaymentSchedule(
+      snapshot({
+        asOf: "2026-12-01",
+        sites: [site({ id: "old1", activatedOn: "1901-03-01" })],
+        budgetVersions: [budget({ id: "b1", siteId: "old1", effectiveFrom: "1900-01-01", startupFeeMinor: 100n, visitFees: { V1: 10n } })],
+        subjects: [{ id: "a", siteId: "old1", code: "S-a", screenedOn: "1901-03-02", enrolledOn: "1901-03-02" }],
+        visits: [v("z", "2026-05-05"), v("b", "1901-03-01"), v("y", "2026-05-05"), v("a", "1950-01-01")],
+      }),
+    );
+    expect(out.lines.map((l) => l.key)).toEqual(["startup:old1", "visit:b", "visit:a", "visit:y", "visit:z"]);
   });
 });

@@ -152,6 +152,21 @@ describe("payment schedule properties (fast-check)", () => {
     );
   });
 
+  it("lines come out by site (input order), then trigger date, then key", () => {
+    fc.assert(
+      fc.property(studyArb, (study) => {
+        const snap = buildSnapshot(study);
+        const lines = computePaymentSchedule(snap).lines;
+        const siteOrder = new Map(snap.sites.map((s, i) => [s.id, i]));
+        const expected = [...lines].sort(
+          (a, b) => (siteOrder.get(a.siteId) as number) - (siteOrder.get(b.siteId) as number) || a.triggerDate.localeCompare(b.triggerDate) || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0),
+        );
+        expect(lines.map((l) => l.key)).toEqual(expected.map((l) => l.key));
+      }),
+      RUNS,
+    );
+  });
+
   it("recomputing gives identical output (deep equal), also from a copy of the input", () => {
     fc.assert(
       fc.property(studyArb, (study) => {
