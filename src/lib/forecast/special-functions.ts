@@ -53,29 +53,30 @@ export function regularizedLowerGamma(a: number, x: number): number {
   return Math.max(0, 1 - Math.exp(logPrefix) * h);
 }
 
-/** Quantile of Gamma(shape, rate): x with P(X ≤ x) = p. Newton steps kept inside a bisection bracket. */
-export function gammaQuantile(p: number, shape: number, rate: number): number {
+/**
+ * Quantile of Gamma(shape, rate): x with P(X ≤ x) = p. Newton steps kept inside a bracket that
+ * tightens as they go (bisection when a step leaves it, doubling while no upper end is known).
+ * `start` (in the same units as the answer) is an optional first guess: a close one saves steps.
+ */
+export function gammaQuantile(p: number, shape: number, rate: number, start?: number): number {
   if (!(p >= 0 && p <= 1)) throw new RangeError(`Probability must lie in [0, 1], got ${p}`);
   if (!(shape > 0 && rate > 0)) throw new RangeError("Gamma shape and rate must be positive");
   if (p === 0) return 0;
   if (p === 1) return Infinity;
   const a = shape;
   let lo = 0;
-  let hi = Math.max(1, a);
-  while (regularizedLowerGamma(a, hi) < p) {
-    lo = hi;
-    hi *= 2;
-  }
-  let x = Math.min(Math.max(a, lo), hi);
+  let hi = Infinity;
+  let x = start !== undefined && start > 0 && Number.isFinite(start) ? start * rate : Math.max(a, 1e-300);
   const logNorm = logGamma(a);
-  for (let i = 0; i < 200; i++) {
+  for (let i = 0; i < 400; i++) {
     const f = regularizedLowerGamma(a, x) - p;
+    if (f === 0) break;
     if (f < 0) lo = x;
     else hi = x;
     const density = Math.exp((a - 1) * Math.log(x) - x - logNorm);
     let next = density > 0 ? x - f / density : NaN;
-    if (!(next > lo && next < hi)) next = (lo + hi) / 2;
-    if (f === 0 || Math.abs(next - x) <= 1e-14 * x) {
+    if (!(next > lo && next < hi)) next = hi === Infinity ? Math.max(2 * x, 1) : (lo + hi) / 2;
+    if (Math.abs(next - x) <= 1e-14 * x) {
       x = next;
       break;
     }

@@ -17,7 +17,7 @@ import type {
   Totals,
   UnmatchedPayment,
 } from "./result";
-import type { PaymentScheduleSnapshot, Subject } from "./snapshot";
+import type { PaymentScheduleSnapshot, RecordedVisit, Subject } from "./snapshot";
 
 function emptyTotals(currency: string): Totals {
   return {
@@ -140,7 +140,11 @@ function indexSnapshot(snapshot: PaymentScheduleSnapshot, pending: PendingEvent[
     input.versions.sort((a, b) => (a.effectiveFrom < b.effectiveFrom ? -1 : a.effectiveFrom > b.effectiveFrom ? 1 : a.versionNumber - b.versionNumber));
   }
   const subjectById = new Map<string, { subject: Subject; input: SiteInput }>();
-  for (const s of snapshot.subjects) {
+  // Indexed loops over the large arrays: this runs once per computation, often before the optimiser
+  // has compiled it, and an unoptimised for…of allocates a result object per element.
+  const subjects = snapshot.subjects;
+  for (let i = 0; i < subjects.length; i++) {
+    const s = subjects[i] as Subject;
     const input = siteInputs.get(s.siteId);
     if (!input) {
       pending.push({ key: `subject:${s.id}`, siteId: s.siteId, serviceDate: s.screenedOn, reason: "unknown_site", detail: `Subject ${s.code} belongs to no site in the snapshot` });
@@ -152,7 +156,9 @@ function indexSnapshot(snapshot: PaymentScheduleSnapshot, pending: PendingEvent[
   // A subject's visits usually come one after another: the previous lookup is reused.
   let lastSubjectId: string | null = null;
   let lastFound: { subject: Subject; input: SiteInput } | undefined;
-  for (const v of snapshot.visits) {
+  const visits = snapshot.visits;
+  for (let i = 0; i < visits.length; i++) {
+    const v = visits[i] as RecordedVisit;
     const found = v.subjectId === lastSubjectId ? lastFound : subjectById.get(v.subjectId);
     lastSubjectId = v.subjectId;
     lastFound = found;

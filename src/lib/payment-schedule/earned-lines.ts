@@ -359,9 +359,7 @@ function daySlot(iso: string): number {
 }
 
 function byKey(a: ScheduleLine, b: ScheduleLine): number {
-  const ka = a.key;
-  const kb = b.key;
-  return ka < kb ? -1 : ka > kb ? 1 : 0;
+  return a.compareKey(b);
 }
 
 /**
@@ -399,13 +397,19 @@ export function sortLines(lines: ScheduleLine[]): ScheduleLine[] {
     sorted[fill[d] as number] = lines[i] as ScheduleLine;
     fill[d] = (fill[d] as number) + 1;
   }
-  // Lines of the same day, by key (usually none or a few).
+  // Lines of the same day, by key: an insertion sort in place (a day has a few lines).
   for (let d = 0; d < span; d++) {
     const from = start[d] as number;
     const to = start[d + 1] as number;
-    if (to - from < 2) continue;
-    const day = sorted.slice(from, to).sort(byKey);
-    for (let i = 0; i < day.length; i++) sorted[from + i] = day[i] as ScheduleLine;
+    for (let i = from + 1; i < to; i++) {
+      const l = sorted[i] as ScheduleLine;
+      let j = i - 1;
+      while (j >= from && (sorted[j] as ScheduleLine).compareKey(l) > 0) {
+        sorted[j + 1] = sorted[j] as ScheduleLine;
+        j--;
+      }
+      sorted[j + 1] = l;
+    }
   }
   return sorted;
 }

@@ -85,6 +85,18 @@ export class ScheduleLine implements EarnedLine {
     this.inRun = true;
   }
 
+  /** Orders lines by key like comparing `key`s, without building the keys of two visit lines. */
+  compareKey(other: ScheduleLine): number {
+    if (this.visit !== null && other.visit !== null) {
+      const a = this.visit.id;
+      const b = other.visit.id;
+      return a < b ? -1 : a > b ? 1 : 0;
+    }
+    const a = this.key;
+    const b = other.key;
+    return a < b ? -1 : a > b ? 1 : 0;
+  }
+
   get key(): string {
     return this.visit !== null ? `visit:${this.visit.id}` : (this.draft as EventLineDraft).key;
   }

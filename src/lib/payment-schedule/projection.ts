@@ -154,6 +154,17 @@ export function computeProjection(snapshot: PaymentScheduleSnapshot, inputs: rea
       for (const d of [s.site.enrolmentClosedOn, s.site.closedOutOn]) if (d) stopT = Math.min(stopT, (dayNumber(d) - asOfDay) / DAYS_PER_MONTH);
       const mean = rateMean(post);
       const varRate = rateVariance(post);
+      // For a milestone needing `need` more subjects, at a time t: P(N(t) ≥ need), E[λ·1{N(t) ≥ need}]
+      // and E[λ·P(N(t) = need − 1)]. A month's end is the next month's start: each is computed once.
+      const rate = post;
+      const atEdge = new Map<number, { t: number; p: number; meanRateP: number; pmf: number }>();
+      const edge = (need: number, t: number) => {
+        const last = atEdge.get(need);
+        if (last !== undefined && last.t === t) return last;
+        const at = { t, p: probabilityAtLeast(rate, t, need), meanRateP: meanRateTimesProbabilityAtLeast(rate, t, need), pmf: meanRateTimesPoissonPmf(rate, t, need - 1) };
+        atEdge.set(need, at);
+        return at;
+      };
       buckets.forEach((b, i) => {
         const m = siteMoments[i] as Moments;
         const t0 = Math.max(0, dayNumber(b.start) - 1 - asOfDay) / DAYS_PER_MONTH;
@@ -188,16 +199,18 @@ export function computeProjection(snapshot: PaymentScheduleSnapshot, inputs: rea
         const e1 = Math.min(t1, Math.max(0, stopT));
         for (const f of v.milestoneFees) {
           if (f.kind !== "nth_enrolled" || f.n == null || f.n <= h.count || e1 <= e0) continue;
-          const rate = post as RatePosterior;
           const need = f.n - h.count;
-          const p = probabilityAtLeast(rate, e1, need) - probabilityAtLeast(rate, e0, need);
-          const fee = Number(prices.price(v, f.amountMinor, true).netMinor);
-          const gross = Number(prices.price(v, f.amountMinor, true).grossMinor);
+          const at0 = edge(need, e0);
+          const at1 = edge(need, e1);
+          const p = at1.p - at0.p;
+          const priced = prices.price(v, f.amountMinor, true);
+          const fee = priced.net;
+          const gross = priced.gross;
           m.grossMean += p * gross;
           m.netMean += p * fee;
           let withinRate = 0;
-          for (const q of parts) withinRate += q.net * (overlap(q.lo, q.hi, 0, e1) * meanRateTimesPoissonPmf(rate, e1, need - 1) - overlap(q.lo, q.hi, 0, e0) * meanRateTimesPoissonPmf(rate, e0, need - 1));
-          const acrossRates = sumNetLen * (meanRateTimesProbabilityAtLeast(rate, e1, need) - meanRateTimesProbabilityAtLeast(rate, e0, need) - mean * p);
+          for (const q of parts) withinRate += q.net * (overlap(q.lo, q.hi, 0, e1) * at1.pmf - overlap(q.lo, q.hi, 0, e0) * at0.pmf);
+          const acrossRates = sumNetLen * (at1.meanRateP - at0.meanRateP - mean * p);
           m.netVariance += p * (1 - p) * fee * fee + 2 * fee * (withinRate + acrossRates);
         }
       });

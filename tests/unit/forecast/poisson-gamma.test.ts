@@ -158,6 +158,17 @@ describe("gamma quantiles and the 80% band", () => {
     expect(Math.abs(gammaQuantile(p, a, b) - ref) / ref).toBeLessThan(1e-8);
   });
 
+  it.each([
+    [0.1, 2, 4, 1e-9],
+    [0.9, 2, 4, 1e6],
+    [0.9, 50.5, 3.2, 15.6],
+    [0.01, 0.05, 2, 3],
+    [0.5, 0.3, 1, Number.NaN],
+  ])("quantile(%d; shape %d, rate %d) from a first guess of %d still matches @stdlib", (p, a, b, start) => {
+    const ref = stdlibGammaQuantile(p, a, b);
+    expect(Math.abs(gammaQuantile(p, a, b, start) - ref) / ref).toBeLessThan(1e-8);
+  });
+
   it("band80 is the 10th–90th percentile of the moment-matched gamma", () => {
     const { low, high } = band80(100, 400); // shape 25, rate 0.25
     expect(low).toBeCloseTo(stdlibGammaQuantile(0.1, 25, 0.25), 8);
