@@ -116,7 +116,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
       if (done && visit.verifiedOn && visit.verifiedOn < addDays(asOf, -120) && rnd() < 0.9) {
         const v = versions[1]!.effectiveFrom <= serviceDate ? versions[1]! : versions[0]!;
         const fee = v.visitFees[code] as bigint;
-        payments.push({ lineKey: `visit:${visit.id}`, amountMinor: priceFee(fee, v.overheadBps, v.holdbackBps).netMinor, paidOn: addDays(visit.verifiedOn, 60) });
+        payments.push({ siteId: subject.siteId, lineKey: `visit:${visit.id}`, amountMinor: priceFee(fee, v.overheadBps, v.holdbackBps).netMinor, paidOn: addDays(visit.verifiedOn, 60) });
       }
     }
   }

@@ -91,7 +91,7 @@ export async function seedPayments({ db, log }: SeedContext) {
     .innerJoin(subjects, eq(subjects.id, visitRecords.subjectId))
     .where(eq(subjects.studyId, study.id));
   const invoices = await db.select().from(passThroughInvoices).where(eq(passThroughInvoices.studyId, study.id));
-  const recorded = await db.select({ lineKey: paymentsRecorded.lineKey, amountMinor: paymentsRecorded.amountMinor, paidOn: paymentsRecorded.paidOn }).from(paymentsRecorded).where(eq(paymentsRecorded.studyId, study.id));
+  const recorded = await db.select({ siteId: paymentsRecorded.siteId, lineKey: paymentsRecorded.lineKey, amountMinor: paymentsRecorded.amountMinor, paidOn: paymentsRecorded.paidOn }).from(paymentsRecorded).where(eq(paymentsRecorded.studyId, study.id));
   const schedule = computePaymentSchedule(
     buildSnapshot({ asOf: DEMO_TODAY, sites: siteRows, siteSteps: steps, versions: versions.map((v) => ({ ...v, items: items.filter((i) => i.budgetVersionId === v.id) })), invoices, subjects: subjectRows, visits: visitRows, payments: recorded }),
   );

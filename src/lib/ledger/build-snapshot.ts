@@ -64,7 +64,7 @@ export interface SnapshotRows {
   invoices: { id: string; siteId: string; approvedOn: string; amountMinor: bigint; description: string }[];
   subjects: { id: string; siteId: string; code: string; status: string; consentDate: string; screeningDate: string | null; enrolmentDate: string | null; implantDate: string | null; endedOn: string | null }[];
   visits: { id: string; subjectId: string; visitCode: string; outcome: "done" | "missed"; actualDate: string | null; dataEnteredOn: string | null; verifiedOn: string | null }[];
-  payments: { lineKey: string; amountMinor: bigint; paidOn: string }[];
+  payments: { siteId: string; lineKey: string; amountMinor: bigint; paidOn: string }[];
 }
 
 export function buildSnapshot(rows: SnapshotRows): PaymentScheduleSnapshot {

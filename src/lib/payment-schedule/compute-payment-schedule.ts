@@ -188,7 +188,8 @@ interface Books {
  */
 function settleSite(input: SiteInput, books: Books, lines: ScheduleLine[] | null, pending: PendingEvent[]): { cycles: CycleSummary[]; totals: SiteTotals; ledger: HoldbackLedger } {
   const { site, asOf } = input;
-  const { prices, cycles, payments, inRun } = books;
+  const { prices, cycles, inRun } = books;
+  const payments = books.payments.forSite(site.id);
   const cycleSummaries: CycleSummary[] = [];
   const acc = new SiteAccumulator(inRun);
   // The sums do not depend on the order of the lines: without lines, each is added up as it is built.
@@ -309,7 +310,7 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
     ct.siteCount++;
   }
 
-  const unmatchedPayments: UnmatchedPayment[] = books.payments.unmatched().map(({ payment: p, reason }) => ({ lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason }));
+  const unmatchedPayments: UnmatchedPayment[] = books.payments.unmatched().map(({ payment: p, reason }) => ({ siteId: p.siteId, lineKey: p.lineKey, amountMinor: p.amountMinor, paidOn: p.paidOn, reason }));
 
   return {
     asOf: snapshot.asOf,

@@ -1,7 +1,7 @@
 import { cyclePeriodOf, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
 import { MoneySum } from "./money-sum";
 import { ScheduleLine, type CycleSlot, type EventLineDraft, type PricedAmounts, type SiteLineContext } from "./line";
-import type { PaymentIndex } from "./payment-index";
+import type { SitePayments } from "./payment-index";
 import { PriceBook, pricePassThrough, withNumbers } from "./pricing";
 import type { PendingEvent } from "./result";
 import type { BudgetVersion, MilestoneFee, PassThroughInvoice, RecordedVisit, ScreenFailureCap, Site, Subject } from "./snapshot";
@@ -120,7 +120,7 @@ export function buildSiteLines(
   input: SiteInput,
   prices: PriceBook,
   cycles: CycleBook,
-  payments: PaymentIndex,
+  payments: SitePayments,
   pending: PendingEvent[],
   onLine: ((line: ScheduleLine) => void) | null = null,
   keep = true,

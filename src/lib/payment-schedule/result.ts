@@ -129,6 +129,7 @@ export interface PendingEvent {
 }
 
 export interface UnmatchedPayment {
+  siteId: string;
   lineKey: string;
   amountMinor: bigint;
   paidOn: string;

@@ -85,6 +85,8 @@ export const recordedVisitSchema = z.object({
 });
 
 export const paymentSchema = z.object({
+  /** The site the money was paid to: the payment settles that site's line with its key. */
+  siteId: z.string().min(1),
   lineKey: z.string().min(1),
   amountMinor: amount,
   paidOn: isoDate,

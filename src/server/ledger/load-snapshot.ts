@@ -102,14 +102,15 @@ export async function loadScheduleSnapshot(
     tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
     arrayRows(
       tx,
-      `select concat_ws(E'\\x1f', amount_minor, paid_on, line_key) from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      `select concat_ws(E'\\x1f', amount_minor, paid_on, site_id, line_key) from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) =>
       rows.map((r) => {
         const s = r[0] as string;
         const a = s.indexOf(US);
         const b = s.indexOf(US, a + 1);
-        return { lineKey: s.slice(b + 1), amountMinor: BigInt(s.slice(0, a)), paidOn: s.slice(a + 1, b) };
+        const c = s.indexOf(US, b + 1);
+        return { siteId: s.slice(b + 1, c), lineKey: s.slice(c + 1), amountMinor: BigInt(s.slice(0, a)), paidOn: s.slice(a + 1, b) };
       }),
     ),
   ]);

@@ -21,7 +21,7 @@ describe("schedule lines", () => {
   const s = computePaymentSchedule({
     ...snap,
     inPaymentRun: first.lines.filter((_, i) => i % 50 === 0).map((l) => l.key),
-    payments: [...(snap.payments ?? []), { lineKey: partly.key, amountMinor: partly.netMinor / 2n, paidOn: partly.triggerDate }, { lineKey: beyond.key, amountMinor: beyond.netMinor + 100n, paidOn: beyond.triggerDate }],
+    payments: [...(snap.payments ?? []), { siteId: partly.siteId, lineKey: partly.key, amountMinor: partly.netMinor / 2n, paidOn: partly.triggerDate }, { siteId: beyond.siteId, lineKey: beyond.key, amountMinor: beyond.netMinor + 100n, paidOn: beyond.triggerDate }],
   });
 
   // (Over-cap screen failures, state not_payable, are checked in worked-examples.test.ts.)

@@ -56,11 +56,11 @@ function buildSnapshot(study: Study): PaymentScheduleSnapshot {
   const budgetVersions: BudgetVersion[] = [];
   const subjects: Subject[] = [];
   const visits: RecordedVisit[] = [];
-  const keys: string[] = [];
+  const keys: { siteId: string; lineKey: string }[] = [];
   study.sites.forEach((s, i) => {
     const id = `s${i}`;
     sites.push(site({ id, currency: s.currency, activatedOn: s.activated === null ? null : day(s.activated), closedOutOn: s.closeOut === null ? null : day(s.closeOut) }));
-    keys.push(`startup:${id}`, `holdback-release:${id}`, `milestone:${id}:enrolled-1`);
+    keys.push(...[`startup:${id}`, `holdback-release:${id}`, `milestone:${id}:enrolled-1`].map((lineKey) => ({ siteId: id, lineKey })));
     s.versions.forEach((v, k) =>
       budgetVersions.push(
         budget({
@@ -94,19 +94,19 @@ function buildSnapshot(study: Study): PaymentScheduleSnapshot {
         subj.implantedOn = day(x.screened + x.enrolAfter + 7);
       }
       subjects.push(subj);
-      keys.push(`screen-failure:${sid}`);
+      keys.push({ siteId: id, lineKey: `screen-failure:${sid}` });
       x.visits.forEach((v, k) => {
         const serviceDate = day(x.screened + v.after);
         const visit: RecordedVisit = { id: `${sid}-v${k}`, subjectId: sid, visitCode: v.code, serviceDate, status: v.done ? "done" : "missed" };
         if (v.entry !== null) visit.dataEnteredOn = addDays(serviceDate, v.entry);
         if (v.verify !== null) visit.verifiedOn = addDays(serviceDate, v.verify);
         visits.push(visit);
-        keys.push(`visit:${visit.id}`);
+        keys.push({ siteId: id, lineKey: `visit:${visit.id}` });
       });
     });
   });
   const passThroughInvoices = study.sites.flatMap((s, i) => (s.invoice ? [{ id: `inv${i}`, siteId: `s${i}`, approvedOn: day(s.invoice.at), amountMinor: s.invoice.amount, description: "Ethics fee" }] : []));
-  const payments = study.payments.map((p) => ({ lineKey: keys[p.pick % keys.length] as string, amountMinor: p.amount, paidOn: day(p.at) }));
+  const payments = study.payments.map((p) => ({ ...(keys[p.pick % keys.length] as { siteId: string; lineKey: string }), amountMinor: p.amount, paidOn: day(p.at) }));
   return { asOf: day(study.asOf), sites, budgetVersions, subjects, visits, passThroughInvoices, payments, inPaymentRun: [] };
 }
 
@@ -197,8 +197,9 @@ describe("payment schedule properties (fast-check)", () => {
         const snap = buildSnapshot(study);
         const before = computePaymentSchedule(snap);
         if (before.lines.length === 0) return;
-        const key = (before.lines[pick % before.lines.length] as { key: string }).key;
-        const after = computePaymentSchedule({ ...snap, payments: [...(snap.payments ?? []), { lineKey: key, amountMinor: amount, paidOn: snap.asOf }] });
+        const picked = before.lines[pick % before.lines.length] as { key: string; siteId: string };
+        const key = picked.key;
+        const after = computePaymentSchedule({ ...snap, payments: [...(snap.payments ?? []), { siteId: picked.siteId, lineKey: key, amountMinor: amount, paidOn: snap.asOf }] });
         const earned = (x: typeof before) => x.lines.map((l) => [l.key, l.grossMinor, l.overheadMinor, l.holdbackMinor, l.netMinor, l.triggerDate, l.budgetVersionId]);
         expect(earned(after)).toEqual(earned(before));
         expect(after.sites.map((t) => t.earnedMinor)).toEqual(before.sites.map((t) => t.earnedMinor));

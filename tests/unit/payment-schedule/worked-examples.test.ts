@@ -190,10 +190,12 @@ describe("triggers, payments, pass-through costs, milestones and close-out", () 
       visits,
       passThroughInvoices: [{ id: "irb1", siteId: "us1", approvedOn: "2026-01-20", amountMinor: 250000n, description: "Ethics committee review fee" }],
       payments: [
-        { lineKey: "startup:us1", amountMinor: 585000n, paidOn: "2026-02-20" },
-        { lineKey: "visit:x1", amountMinor: 50000n, paidOn: "2026-05-20" },
-        { lineKey: "pass-through:irb1", amountMinor: 260000n, paidOn: "2026-03-01" },
-        { lineKey: "visit:nope", amountMinor: 1n, paidOn: "2026-03-01" },
+        { siteId: "us1", lineKey: "startup:us1", amountMinor: 585000n, paidOn: "2026-02-20" },
+        { siteId: "us1", lineKey: "visit:x1", amountMinor: 50000n, paidOn: "2026-05-20" },
+        { siteId: "us1", lineKey: "pass-through:irb1", amountMinor: 260000n, paidOn: "2026-03-01" },
+        { siteId: "us1", lineKey: "visit:nope", amountMinor: 1n, paidOn: "2026-03-01" },
+        // Paid to us1 under the key of a ch1 line: it settles nothing at ch1.
+        { siteId: "us1", lineKey: "visit:y2", amountMinor: 2n, paidOn: "2026-03-02" },
       ],
       inPaymentRun: ["visit:y2"],
     }),
@@ -213,7 +215,11 @@ describe("triggers, payments, pass-through costs, milestones and close-out", () 
     expect(line(s, "visit:x1")).toMatchObject({ netMinor: 117000n, paidMinor: 50000n, outstandingMinor: 67000n, partiallyPaid: true, state: "overdue", dueDate: "2026-05-30" });
     // pass-through at cost: 2,500.00, no overhead, nothing withheld; 2,600.00 paid → 100.00 unapplied
     expect(line(s, "pass-through:irb1")).toMatchObject({ overheadMinor: 0n, holdbackMinor: 0n, netMinor: 250000n, paidMinor: 250000n, unappliedMinor: 10000n });
-    expect(s.unmatchedPayments).toEqual([{ lineKey: "visit:nope", amountMinor: 1n, paidOn: "2026-03-01", reason: "no_such_line" }]);
+    expect(s.unmatchedPayments).toEqual([
+      { siteId: "us1", lineKey: "visit:nope", amountMinor: 1n, paidOn: "2026-03-01", reason: "no_such_line" },
+      { siteId: "us1", lineKey: "visit:y2", amountMinor: 2n, paidOn: "2026-03-02", reason: "no_such_line" },
+    ]);
+    expect(line(s, "visit:y2")).toMatchObject({ paidMinor: 0n, lastPaidOn: null });
   });
 
   it("pays milestones at their event dates", () => {
