@@ -3,6 +3,7 @@
 import { addDays } from "../../src/lib/payment-schedule/calendar";
 import { priceFee } from "../../src/lib/payment-schedule/pricing";
 import type { BudgetVersion, PassThroughInvoice, Payment, PaymentScheduleSnapshot, RecordedVisit, Site, Subject } from "../../src/lib/payment-schedule/snapshot";
+import { parsePaymentRow, parseVisitRow, paymentRowText, visitRowText } from "../../src/lib/ledger/snapshot-rows";
 import { seededRandom } from "../lib/seeded-random";
 
 export interface GenerateStudyOptions {
@@ -47,7 +48,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
   for (let i = 0; i < siteCount; i++) {
     const [currency, timeZone, scale] = CURRENCIES[i % CURRENCIES.length] as [string, string, bigint];
     const unit = currency === "JPY" ? 150n : currency === "KWD" ? 300n : 100n * scale; // minor units per "euro"
-    const id = `site-${String(i + 1).padStart(3, "0")}`;
+    const id = uuidOf(1, i + 1);
     const activatedOn = addDays("2019-06-01", int(0, 540));
     const closedOutOn = i % 20 === 19 ? addDays(asOf, -int(10, 120)) : null;
     sites.push({ id, code: `S${String(i + 1).padStart(3, "0")}`, currency, timeZone, activatedOn, enrolmentClosedOn: closedOutOn, closedOutOn });
@@ -85,7 +86,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
   let visitId = 0;
   for (let j = 0; j < subjectCount; j++) {
     const site = sites[j % siteCount] as Site & { activatedOn: string };
-    const id = `subj-${String(j + 1).padStart(5, "0")}`;
+    const id = uuidOf(2, j + 1);
     const screenedOn = addDays(site.activatedOn, int(5, 600));
     const enrolled = j < enrolledCount;
     const subject: Subject = { id, siteId: site.id, code: `K-${String(j + 1).padStart(5, "0")}`, screenedOn };
@@ -106,7 +107,7 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
       }
       const serviceDate = addDays(target, int(-3, 3));
       const done = rnd() < 0.95;
-      const visit: RecordedVisit = { id: `visit-${++visitId}`, subjectId: id, visitCode: code, serviceDate, status: done ? "done" : "missed" };
+      const visit: RecordedVisit = { id: uuidOf(3, ++visitId), subjectId: id, visitCode: code, serviceDate, status: done ? "done" : "missed" };
       if (done) {
         visit.dataEnteredOn = addDays(serviceDate, int(0, 14));
         if (rnd() < 0.85) visit.verifiedOn = addDays(visit.dataEnteredOn, int(5, 60));
@@ -125,10 +126,49 @@ export function generateStudy(options: GenerateStudyOptions = {}): PaymentSchedu
     sites,
     budgetVersions,
     passThroughInvoices,
-    subjects,
-    visits,
-    payments,
+    ...asLoaded(subjects, visits, payments),
     inPaymentRun: [],
     projection: { scheduledVisits, newSubjectVisitPlan: VISITS.slice(0, 8).map(([visitCode, dayOffset]) => ({ visitCode, dayOffset })), horizonMonths: 12 },
   };
+}
+
+/** Ids shaped like the database's (UUID text, 36 characters): kind and number in hexadecimal. */
+function uuidOf(kind: number, n: number): string {
+  const hex = n.toString(16).padStart(12, "0");
+  return `${kind.toString(16).padStart(8, "0")}-0000-4000-8000-${hex}`;
+}
+
+/** A fresh string, as the database driver decodes one from the wire (not sharing another's memory). */
+const fromWire = (s: string) => Buffer.from(s, "utf8").toString("utf8");
+
+/**
+ * Subjects, visits and payments as the server's loader hands them to the engine: in the order a
+ * table filled over the years returns them (by date, sites interleaved), each row decoded afresh and
+ * parsed by the loader's own row parsers. The engine's speed depends on that layout in memory;
+ * objects built site by site in one pass would flatter it.
+ */
+function asLoaded(subjects: Subject[], visits: RecordedVisit[], payments: Payment[]): Pick<PaymentScheduleSnapshot, "subjects" | "visits" | "payments"> {
+  const byDate = <T>(items: T[], date: (x: T) => string) =>
+    items
+      .map((x, i) => ({ x, i, d: date(x) }))
+      .sort((a, b) => (a.d < b.d ? -1 : a.d > b.d ? 1 : a.i - b.i))
+      .map((e) => e.x);
+  const loadedSubjects = byDate(subjects, (s) => s.screenedOn).map(
+    (s): Subject => ({
+      id: fromWire(s.id),
+      siteId: fromWire(s.siteId),
+      code: fromWire(s.code),
+      screenedOn: fromWire(s.screenedOn),
+      screenFailedOn: s.screenFailedOn ? fromWire(s.screenFailedOn) : null,
+      enrolledOn: s.enrolledOn ? fromWire(s.enrolledOn) : null,
+      implantedOn: s.implantedOn ? fromWire(s.implantedOn) : null,
+    }),
+  );
+  const loadedVisits = byDate(visits, (v) => v.serviceDate).map((v): RecordedVisit => {
+    const row = parseVisitRow(fromWire(visitRowText({ id: v.id, subjectId: v.subjectId, versionId: "", outcome: v.status, actualDate: v.serviceDate, dataEnteredOn: v.dataEnteredOn ?? null, verifiedOn: v.verifiedOn ?? null, visitCode: v.visitCode })));
+    // As buildSnapshot maps a visit row (src/lib/ledger/build-snapshot.ts).
+    return { id: row.id, subjectId: row.subjectId, visitCode: row.visitCode, serviceDate: row.actualDate as string, status: row.outcome, dataEnteredOn: row.dataEnteredOn, verifiedOn: row.verifiedOn };
+  });
+  const loadedPayments = byDate(payments, (p) => p.paidOn).map((p) => parsePaymentRow(fromWire(paymentRowText(p))));
+  return { subjects: loadedSubjects, visits: loadedVisits, payments: loadedPayments };
 }

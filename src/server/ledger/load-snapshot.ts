@@ -6,6 +6,7 @@ import type { PgColumn } from "drizzle-orm/pg-core";
 import { notFound } from "@/server/api/errors";
 import { listBudgetVersions } from "@/server/budgets/queries";
 import { buildSnapshot } from "@/lib/ledger/build-snapshot";
+import { parsePaymentRow, parseVisitRow, paymentRowSql, visitRowSql, type VisitRow } from "@/lib/ledger/snapshot-rows";
 import { listVersionsInForceAtSites } from "@/server/protocol/in-force";
 import { CalendarInputError, computeSubjectCalendar } from "@/lib/visits";
 import { localDate, type PaymentScheduleSnapshot, type ProjectionInput } from "@/lib/payment-schedule";
@@ -25,7 +26,6 @@ export interface LoadedSnapshot {
 const NO_SITE = "00000000-0000-4000-8000-000000000000";
 
 type SubjectRow = { id: string; siteId: string; code: string; status: SubjectStatus; consentDate: string; screeningDate: string | null; enrolmentDate: string | null; implantDate: string | null; endedOn: string | null };
-type VisitRow = { id: string; subjectId: string; visitCode: string; versionId: string; outcome: "done" | "missed"; actualDate: string | null; dataEnteredOn: string | null; verifiedOn: string | null };
 
 type Queryable = { query: (config: { text: string; values: unknown[]; rowMode: "array" }) => Promise<{ rows: unknown[][] }> };
 
@@ -40,8 +40,6 @@ async function arrayRows(tx: Tx, text: string, values: unknown[]): Promise<(stri
   if (!client || typeof client.query !== "function") throw new Error("loadScheduleSnapshot: the database handle exposes no pg client");
   return (await client.query({ text, values, rowMode: "array" })).rows as (string | null)[][];
 }
-/** Field separator of the one-column reads (never in a uuid, date, enum or amount). */
-const US = "\u001f";
 const ENROLLED_STATES: SubjectStatus[] = ["enrolled", "implanted", "follow_up"];
 
 export async function loadScheduleSnapshot(
@@ -75,44 +73,21 @@ export async function loadScheduleSnapshot(
     ).then((rows) =>
       rows.map((r): SubjectRow => ({ id: r[0]!, siteId: r[1]!, code: r[2]!, status: r[3] as SubjectStatus, consentDate: r[4]!, screeningDate: r[5] ?? null, enrolmentDate: r[6] ?? null, implantDate: r[7] ?? null, endedOn: r[8] ?? null })),
     ),
-    // Visits and payments come as one text column per row, fields joined by a unit separator (U+001F)
-    // and the free-text field last: pg then parses one field per row instead of eight, the loader's
-    // largest cost. A missed visit earns nothing and the engine skips it: only the projection reads them.
+    // Visits and payments come as one text column per row (src/lib/ledger/snapshot-rows.ts). A missed
+    // visit earns nothing and the engine skips it: only the projection reads them.
     arrayRows(
       tx,
-      `select concat_ws(E'\\x1f', vr.id, vr.subject_id, ${projection ? "vr.version_id" : "''"}, vr.outcome, vr.actual_date, coalesce(vr.data_entered_on::text, ''), coalesce(vr.verified_on::text, ''), vr.visit_code)
+      `select ${visitRowSql(projection ? "vr.version_id" : "''")}
         from visit_records vr join subjects su on su.id = vr.subject_id
         where su.study_id = $1 and vr.actual_date is not null ${projection ? "" : "and vr.outcome = 'done'"} ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
-    ).then((rows) =>
-      rows.map((r): VisitRow => {
-        const f = (r[0] as string).split(US);
-        return {
-          id: f[0]!,
-          subjectId: f[1]!,
-          versionId: f[2]!,
-          outcome: f[3] as VisitRow["outcome"],
-          actualDate: f[4] || null,
-          dataEnteredOn: f[5] || null,
-          verifiedOn: f[6] || null,
-          visitCode: f.length === 8 ? f[7]! : f.slice(7).join(US),
-        };
-      }),
-    ),
+    ).then((rows) => rows.map((r) => parseVisitRow(r[0] as string))),
     tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
     arrayRows(
       tx,
-      `select concat_ws(E'\\x1f', amount_minor, paid_on, site_id, line_key) from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      `select ${paymentRowSql} from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
       siteIds === "all" ? [studyId] : [studyId, ids],
-    ).then((rows) =>
-      rows.map((r) => {
-        const s = r[0] as string;
-        const a = s.indexOf(US);
-        const b = s.indexOf(US, a + 1);
-        const c = s.indexOf(US, b + 1);
-        return { siteId: s.slice(b + 1, c), lineKey: s.slice(c + 1), amountMinor: BigInt(s.slice(0, a)), paidOn: s.slice(a + 1, b) };
-      }),
-    ),
+    ).then((rows) => rows.map((r) => parsePaymentRow(r[0] as string))),
   ]);
 
   const snapshot: PaymentScheduleSnapshot = buildSnapshot({ asOf, sites: siteRows, siteSteps: steps, versions, invoices, subjects: subjectRows, visits: visitRows, payments });
