@@ -57,5 +57,25 @@ export function localDate(asOf: string, timeZone: string): string {
   return `${parts.year}-${parts.month}-${parts.day}`;
 }
 
+/** An ISO date as the integer yyyymmdd (ordered as the dates are), read from its characters. */
+export function dateOrdinal(iso: string): number {
+  return (
+    (iso.charCodeAt(0) - 48) * 10_000_000 +
+    (iso.charCodeAt(1) - 48) * 1_000_000 +
+    (iso.charCodeAt(2) - 48) * 100_000 +
+    (iso.charCodeAt(3) - 48) * 10_000 +
+    (iso.charCodeAt(5) - 48) * 1000 +
+    (iso.charCodeAt(6) - 48) * 100 +
+    (iso.charCodeAt(8) - 48) * 10 +
+    (iso.charCodeAt(9) - 48)
+  );
+}
+
+/** The ISO date of a yyyymmdd integer. */
+export function isoDateOfOrdinal(n: number): string {
+  const s = String(n).padStart(8, "0");
+  return `${s.slice(0, 4)}-${s.slice(4, 6)}-${s.slice(6, 8)}`;
+}
+
 /** Average Gregorian month in days, to express exposure and offsets in months. */
 export const DAYS_PER_MONTH = 365.2425 / 12;

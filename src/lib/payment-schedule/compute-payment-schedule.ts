@@ -74,15 +74,27 @@ class SiteAccumulator {
   add(l: ScheduleLine): void {
     if (this.inRun.size > 0 && this.inRun.has(l.key)) l.markInPaymentRun();
     const a = l.amounts;
-    const paid = l.paidMinor;
-    const outstanding = l.outstandingMinor;
-    const unapplied = l.unappliedMinor;
-    const overdue = l.overdue;
-    // Numbers already at hand for the usual cases (nothing paid, or paid in full).
-    const p = paid === 0n ? 0 : paid === a.netMinor ? a.net : Number(paid);
-    const out = outstanding === 0n ? 0 : outstanding === a.netMinor ? a.net : Number(outstanding);
+    // Paid (clamped to the net), outstanding and unapplied: as numbers when exact (the usual case,
+    // no bigint made or read per line), else as bigints.
+    const total = l.paidTotal;
+    let paid: bigint | null = null;
+    let outstanding: bigint | null = null;
+    let p: number;
+    let out: number;
+    if (typeof total === "number" && Number.isSafeInteger(a.net)) {
+      p = total > a.net ? a.net : total;
+      out = a.net - p;
+      if (total > p) this.unapplied.add(null, total - p);
+    } else {
+      paid = l.paidMinor;
+      outstanding = l.outstandingMinor;
+      p = Number(paid);
+      out = Number(outstanding);
+      const unapplied = l.unappliedMinor;
+      if (unapplied !== 0n) this.unapplied.add(unapplied);
+    }
+    const overdue = out > 0 && l.pastDue;
 
-    if (unapplied !== 0n) this.unapplied.add(unapplied);
     if (a.holdbackMinor < 0n) {
       this.released.add(-a.holdbackMinor);
       this.releaseLineKey = l.key;
@@ -287,7 +299,7 @@ export function computePaymentSchedule(snapshot: PaymentScheduleSnapshot, option
   const pending: PendingEvent[] = [];
   const siteInputs = indexSnapshot(snapshot, pending);
 
-  const books: Books = { prices: new PriceBook(), cycles: new CycleBook(), payments: new PaymentIndex(snapshot.payments ?? []), inRun: new Set(snapshot.inPaymentRun ?? []) };
+  const books: Books = { prices: new PriceBook(), cycles: new CycleBook(), payments: new PaymentIndex(snapshot.payments ?? [], [...siteInputs.keys()]), inRun: new Set(snapshot.inPaymentRun ?? []) };
   const lines: ScheduleLine[] = [];
 
   // Sites one after the other (pending events come out in site order).

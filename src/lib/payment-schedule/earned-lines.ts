@@ -1,4 +1,4 @@
-import { cyclePeriodOf, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
+import { cyclePeriodOf, dateOrdinal, dueDateOf, type CyclePeriod, type PaymentCycle } from "./calendar";
 import { MoneySum } from "./money-sum";
 import { ScheduleLine, type CycleSlot, type EventLineDraft, type PricedAmounts, type SiteLineContext } from "./line";
 import type { SitePayments } from "./payment-index";
@@ -133,6 +133,7 @@ export function buildSiteLines(
   const closedOutOn = site.closedOutOn && site.closedOutOn <= asOf ? site.closedOutOn : null;
   const withholds = (triggerDate: string) => closedOutOn === null || triggerDate <= closedOutOn;
   const ctx: SiteLineContext = { site, asOf };
+  const asOfDay = dateOrdinal(asOf);
   const drafts: EventLineDraft[] = [];
   const lines: ScheduleLine[] = [];
 
@@ -286,7 +287,7 @@ export function buildSiteLines(
     // Visits are the bulk of the lines: built directly, without an intermediate draft.
     const amounts = withholds(triggerDate) ? priced : (prices.visit(v, visit.visitCode, false) as PricedAmounts);
     const line = ScheduleLine.ofVisit(ctx, visit, subject, triggerDate, v, amounts, cycles.slot(triggerDate, v.cycle, v.netDays));
-    payments.applyTo(line, null, visit.id, asOf);
+    payments.applyTo(line, null, visit.id, asOfDay);
     if (amounts.holdback !== 0) visitWithheld.add(amounts.holdbackMinor, amounts.holdback);
     if (onLine !== null) onLine(line);
     if (keep) lines.push(line);
@@ -340,7 +341,7 @@ export function buildSiteLines(
 
   for (const d of drafts) {
     const line = ScheduleLine.ofEvent(ctx, d, cycles.slot(d.triggerDate, d.version.cycle, d.version.netDays));
-    payments.applyTo(line, d.key, null, asOf);
+    payments.applyTo(line, d.key, null, asOfDay);
     if (onLine !== null) onLine(line);
     if (keep) lines.push(line);
   }

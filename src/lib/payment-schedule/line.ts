@@ -1,4 +1,4 @@
-import type { CyclePeriod } from "./calendar";
+import { isoDateOfOrdinal, type CyclePeriod } from "./calendar";
 import type { Amounts, EarnedLine, LineKind, LineSource, LineState } from "./result";
 import type { BudgetVersion, PaymentTrigger, RecordedVisit, Site, Subject } from "./snapshot";
 
@@ -50,9 +50,13 @@ export interface EventLineDraft {
  * request.
  */
 export class ScheduleLine implements EarnedLine {
-  /** Sum of the payments applied (may exceed the net: see `paidMinor`, `unappliedMinor`). */
-  private paid = 0n;
-  private lastPaid: string | null = null;
+  /**
+   * Sum of the payments applied (may exceed the net: see `paidMinor`, `unappliedMinor`): a number
+   * while it is a safe integer (exact), a bigint beyond.
+   */
+  private paid: number | bigint = 0;
+  /** Latest payment date as yyyymmdd, −1 when nothing was paid. */
+  private lastPaidDay = -1;
   private inRun = false;
 
   constructor(
@@ -75,10 +79,26 @@ export class ScheduleLine implements EarnedLine {
     return new ScheduleLine(ctx, null, null, draft, draft.triggerDate, draft.version, draft.amounts, slot);
   }
 
-  /** Adds a payment dated on or before asOf. */
-  applyPayment(amountMinor: bigint, paidOn: string): void {
-    this.paid = this.paid === 0n ? amountMinor : this.paid + amountMinor;
-    if (this.lastPaid === null || paidOn > this.lastPaid) this.lastPaid = paidOn;
+  /** Adds a payment dated on or before asOf (its date as yyyymmdd). */
+  applyPayment(amountMinor: number | bigint, day: number): void {
+    const p = this.paid;
+    if (typeof p === "number" && typeof amountMinor === "number" && Number.isSafeInteger(p + amountMinor)) this.paid = p + amountMinor;
+    else this.paid = BigInt(p) + BigInt(amountMinor);
+    if (day > this.lastPaidDay) this.lastPaidDay = day;
+  }
+
+  /** What was paid against the line in all, as stored (number or bigint); for the engine's sums. */
+  get paidTotal(): number | bigint {
+    return this.paid;
+  }
+
+  /** The due date is before the site's asOf. */
+  get pastDue(): boolean {
+    return this.slot.due < this.ctx.asOf;
+  }
+
+  private get paidBig(): bigint {
+    return typeof this.paid === "number" ? BigInt(this.paid) : this.paid;
   }
 
   markInPaymentRun(): void {
@@ -158,33 +178,37 @@ export class ScheduleLine implements EarnedLine {
   }
   /** Paid against the line, at most its net. */
   get paidMinor(): bigint {
-    return this.paid > this.amounts.netMinor ? this.amounts.netMinor : this.paid;
+    const paid = this.paidBig;
+    return paid > this.amounts.netMinor ? this.amounts.netMinor : paid;
   }
   get outstandingMinor(): bigint {
     const net = this.amounts.netMinor;
-    return this.paid >= net ? 0n : this.paid === 0n ? net : net - this.paid;
+    const paid = this.paidBig;
+    return paid >= net ? 0n : net - paid;
   }
   /** Paid beyond the net: kept apart so the reconciliation stays exact. */
   get unappliedMinor(): bigint {
-    return this.paid > this.amounts.netMinor ? this.paid - this.amounts.netMinor : 0n;
+    const paid = this.paidBig;
+    return paid > this.amounts.netMinor ? paid - this.amounts.netMinor : 0n;
   }
   get lastPaidOn(): string | null {
-    return this.lastPaid;
+    return this.lastPaidDay < 0 ? null : isoDateOfOrdinal(this.lastPaidDay);
   }
   get partiallyPaid(): boolean {
-    return this.paid > 0n && this.paid < this.amounts.netMinor;
+    const paid = this.paidBig;
+    return paid > 0n && paid < this.amounts.netMinor;
   }
   get inPaymentRun(): boolean {
     return this.inRun;
   }
   /** Something left to pay after the due date (the site's asOf). */
   get overdue(): boolean {
-    return this.paid < this.amounts.netMinor && this.slot.due < this.ctx.asOf;
+    return this.paidBig < this.amounts.netMinor && this.pastDue;
   }
   get state(): LineState {
     if (this.amounts.netMinor === 0n && this.overCap) return "not_payable";
-    if (this.paid >= this.amounts.netMinor) return "paid";
-    return this.slot.due < this.ctx.asOf ? "overdue" : "outstanding";
+    if (this.paidBig >= this.amounts.netMinor) return "paid";
+    return this.pastDue ? "overdue" : "outstanding";
   }
 
   /** The plain line (every field of `EarnedLine`, in its order): what API responses carry. */

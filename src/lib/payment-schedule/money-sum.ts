@@ -5,15 +5,18 @@ export class MoneySum {
   private small = 0;
   private big: bigint | null = null;
 
-  /** Add x; pass v = Number(x) when it is already at hand, to convert once for several sums. */
-  add(x: bigint, v: number = Number(x)): void {
+  /**
+   * Add x; pass v = Number(x) when it is already at hand, to convert once for several sums. x may be
+   * null when v is a safe integer (the amount exactly).
+   */
+  add(x: bigint | null, v: number = Number(x)): void {
     if (this.big !== null) {
-      this.big += x;
+      this.big += x ?? BigInt(v);
       return;
     }
     const s = this.small + v;
     if (Number.isSafeInteger(v) && Number.isSafeInteger(s)) this.small = s;
-    else this.big = BigInt(this.small) + x;
+    else this.big = BigInt(this.small) + (x ?? BigInt(v));
   }
 
   get value(): bigint {

@@ -68,24 +68,29 @@ export async function loadScheduleSnapshot(
     arrayRows(
       tx,
       `select id, site_id, code, status::text, consent_date::text, screening_date::text, enrolment_date::text, implant_date::text, ended_on::text
-        from subjects where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+        from subjects where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}
+        order by site_id, id`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) =>
       rows.map((r): SubjectRow => ({ id: r[0]!, siteId: r[1]!, code: r[2]!, status: r[3] as SubjectStatus, consentDate: r[4]!, screeningDate: r[5] ?? null, enrolmentDate: r[6] ?? null, implantDate: r[7] ?? null, endedOn: r[8] ?? null })),
     ),
     // Visits and payments come as one text column per row (src/lib/ledger/snapshot-rows.ts). A missed
-    // visit earns nothing and the engine skips it: only the projection reads them.
+    // visit earns nothing and the engine skips it: only the projection reads them. Subjects, visits
+    // and payments come grouped by site (visits by subject within it): the engine then reads each
+    // site's objects where they lie together in memory, in the order they were made (any order gives
+    // the same result, in about twice the time at 150,000 visits).
     arrayRows(
       tx,
       `select ${visitRowSql(projection ? "vr.version_id" : "''")}
         from visit_records vr join subjects su on su.id = vr.subject_id
-        where su.study_id = $1 and vr.actual_date is not null ${projection ? "" : "and vr.outcome = 'done'"} ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}`,
+        where su.study_id = $1 and vr.actual_date is not null ${projection ? "" : "and vr.outcome = 'done'"} ${siteIds === "all" ? "" : "and su.site_id = any($2::uuid[])"}
+        order by su.site_id, vr.subject_id`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) => rows.map((r) => parseVisitRow(r[0] as string))),
     tx.select().from(passThroughInvoices).where(and(eq(passThroughInvoices.studyId, studyId), inSites(passThroughInvoices.siteId))),
     arrayRows(
       tx,
-      `select ${paymentRowSql} from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"}`,
+      `select ${paymentRowSql} from payments_recorded where study_id = $1 ${siteIds === "all" ? "" : "and site_id = any($2::uuid[])"} order by site_id`,
       siteIds === "all" ? [studyId] : [studyId, ids],
     ).then((rows) => rows.map((r) => parsePaymentRow(r[0] as string))),
   ]);
