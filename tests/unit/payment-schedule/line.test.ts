@@ -83,4 +83,32 @@ describe("schedule lines", () => {
     );
     expect(out.lines.map((l) => l.key)).toEqual(["startup:old1", "visit:b", "visit:a", "visit:y", "visit:z"]);
   });
+
+  it("stays exact beyond 2^53 minor units: payments, clamping and sums in bigints", () => {
+    // 2^60 = 1,152,921,504,606,846,976: far past the doubles' exact integers (2^53).
+    const big = 2n ** 60n;
+    const v = (id: string) => ({ id, subjectId: "a", visitCode: "V1", serviceDate: "2026-03-10", status: "done" as const });
+    const out = computePaymentSchedule(
+      snapshot({
+        asOf: "2026-12-01",
+        sites: [site({ id: "x1", activatedOn: "2026-01-01" })],
+        budgetVersions: [budget({ id: "b1", siteId: "x1", visitFees: { V1: big } })],
+        subjects: [{ id: "a", siteId: "x1", code: "S-a", screenedOn: "2026-01-02", enrolledOn: "2026-01-03" }],
+        visits: [v("p1"), v("p2"), v("p3")],
+        payments: [
+          { siteId: "x1", lineKey: "visit:p1", amountMinor: big + 5n, paidOn: "2026-04-01" },
+          { siteId: "x1", lineKey: "visit:p2", amountMinor: 3n, paidOn: "2026-04-01" },
+          { siteId: "x1", lineKey: "visit:p2", amountMinor: big - 4n, paidOn: "2026-04-02" },
+          { siteId: "x1", lineKey: "visit:p3", amountMinor: 7n, paidOn: "2026-04-03" },
+        ],
+      }),
+    );
+    const [p1, p2, p3] = ["visit:p1", "visit:p2", "visit:p3"].map((k) => out.lines.find((l) => l.key === k) as EarnedLine);
+    expect(p1).toMatchObject({ paidMinor: big, outstandingMinor: 0n, unappliedMinor: 5n, state: "paid", lastPaidOn: "2026-04-01" });
+    expect(p2).toMatchObject({ paidMinor: big - 1n, outstandingMinor: 1n, partiallyPaid: true, state: "overdue", lastPaidOn: "2026-04-02" });
+    expect(p3).toMatchObject({ paidMinor: 7n, outstandingMinor: big - 7n, unappliedMinor: 0n });
+    const t = out.sites[0]!;
+    expect(t).toMatchObject({ earnedMinor: 3n * big, paidMinor: 2n * big + 6n, outstandingMinor: big - 6n, unappliedMinor: 5n, heldBackMinor: 0n });
+    expect(t.earnedMinor).toBe(t.paidMinor + t.outstandingMinor + t.heldBackMinor);
+  });
 });
