@@ -201,10 +201,6 @@ export class ScheduleLine implements EarnedLine {
   get inPaymentRun(): boolean {
     return this.inRun;
   }
-  /** Something left to pay after the due date (the site's asOf). */
-  get overdue(): boolean {
-    return this.paidBig < this.amounts.netMinor && this.pastDue;
-  }
   get state(): LineState {
     if (this.amounts.netMinor === 0n && this.overCap) return "not_payable";
     if (this.paidBig >= this.amounts.netMinor) return "paid";
