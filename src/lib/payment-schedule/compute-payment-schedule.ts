@@ -57,8 +57,9 @@ function addTotals(into: Totals, from: Totals): void {
 type CycleAcc = { period: EarnedLine["cycle"]; dueDate: string; lineCount: number; gross: MoneySum; overhead: MoneySum; holdback: MoneySum; net: MoneySum; paid: MoneySum; outstanding: MoneySum; overdue: MoneySum };
 
 /**
- * Settles a site's lines one by one (payments clamped, state) and adds them up by cycle; the site's
- * totals are the sums of its cycles' (exact integer sums, so the order of the lines does not matter).
+ * Adds a site's lines up by cycle, with what each has paid clamped to its net as the line itself
+ * reads it, and marks the lines in a live payment run; the site's totals are the sums of its cycles'
+ * (exact integer sums, so the order of the lines does not matter).
  */
 class SiteAccumulator {
   readonly cycles = new Map<EarnedLine["cycle"], Map<string, CycleAcc>>();

@@ -37,8 +37,9 @@ export class CycleBook {
 
   private static key(date: string, cycle: PaymentCycle): number {
     // Numeric key (year·12 + month; −(year·4 + quarter) − 1 for quarters): nothing to hash per line.
-    const year = (date.charCodeAt(0) - 48) * 1000 + (date.charCodeAt(1) - 48) * 100 + (date.charCodeAt(2) - 48) * 10 + (date.charCodeAt(3) - 48);
-    const month = (date.charCodeAt(5) - 48) * 10 + (date.charCodeAt(6) - 48);
+    const ordinal = dateOrdinal(date);
+    const year = Math.floor(ordinal / 10_000);
+    const month = Math.floor(ordinal / 100) % 100;
     return cycle === "monthly" ? year * 12 + month : -(year * 4 + Math.floor((month - 1) / 3)) - 1;
   }
 
@@ -349,18 +350,12 @@ export function buildSiteLines(
 }
 
 /**
- * A day index that keeps the order of ISO dates: year·372 + month·31 + day, read from the characters
- * (not a count of days — months are taken as 31 days — but monotonic and dense enough to bucket).
+ * A day index that keeps the order of ISO dates: year·372 + month·31 + day (not a count of days —
+ * months are taken as 31 days — but monotonic and dense enough to bucket).
  */
 function daySlot(iso: string): number {
-  const year = (iso.charCodeAt(0) - 48) * 1000 + (iso.charCodeAt(1) - 48) * 100 + (iso.charCodeAt(2) - 48) * 10 + (iso.charCodeAt(3) - 48);
-  const month = (iso.charCodeAt(5) - 48) * 10 + (iso.charCodeAt(6) - 48);
-  const day = (iso.charCodeAt(8) - 48) * 10 + (iso.charCodeAt(9) - 48);
-  return year * 372 + month * 31 + day;
-}
-
-function byKey(a: ScheduleLine, b: ScheduleLine): number {
-  return a.compareKey(b);
+  const ordinal = dateOrdinal(iso);
+  return Math.floor(ordinal / 10_000) * 372 + (Math.floor(ordinal / 100) % 100) * 31 + (ordinal % 100);
 }
 
 /**
@@ -382,7 +377,7 @@ export function sortLines(lines: ScheduleLine[]): ScheduleLine[] {
   const span = max - min + 1;
   // Far-apart dates (not in real data; 100 years) would make the buckets wasteful: compare instead.
   if (span > 37_200) {
-    const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => (slot[a] as number) - (slot[b] as number) || byKey(lines[a] as ScheduleLine, lines[b] as ScheduleLine));
+    const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => (slot[a] as number) - (slot[b] as number) || (lines[a] as ScheduleLine).compareKey(lines[b] as ScheduleLine));
     return order.map((i) => lines[i] as ScheduleLine);
   }
   const start = new Int32Array(span + 1);

@@ -6,7 +6,7 @@ import type { PgColumn } from "drizzle-orm/pg-core";
 import { notFound } from "@/server/api/errors";
 import { listBudgetVersions } from "@/server/budgets/queries";
 import { buildSnapshot } from "@/lib/ledger/build-snapshot";
-import { parsePaymentRow, parseVisitRow, paymentRowSql, visitRowSql, type VisitRow } from "@/lib/ledger/snapshot-rows";
+import { parsePaymentRow, parseVisitRow, paymentRowSql, visitRowSql } from "@/lib/ledger/snapshot-rows";
 import { listVersionsInForceAtSites } from "@/server/protocol/in-force";
 import { CalendarInputError, computeSubjectCalendar } from "@/lib/visits";
 import { localDate, type PaymentScheduleSnapshot, type ProjectionInput } from "@/lib/payment-schedule";
