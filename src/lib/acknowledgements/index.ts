@@ -1,5 +1,5 @@
 export * from "./deadline";
 export * from "./state";
 export * from "./meaning";
-export * from "./csv";
+
 export * from "./links";

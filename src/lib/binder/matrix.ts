@@ -1,3 +1,4 @@
+import { csvRow } from "@/lib/csv";
 import { emptyCounts, itemStateLabels, itemStates, type ItemState, type SiteBinder, type StateCounts } from "./readiness";
 
 // The study view: sites × document types, each cell counting the items in each state.
@@ -23,24 +24,16 @@ export function filterMatrix(rows: readonly MatrixRow[], { state, siteCode }: { 
   return rows.filter((r) => (!state || r.totals[state] > 0) && (!siteCode || r.code.toLowerCase().includes(siteCode.toLowerCase())));
 }
 
-/** RFC 4180 field: quoted when it holds a comma, quote or line break; quotes doubled. */
-export function csvField(value: string | number): string {
-  let s = String(value);
-  // A leading = + - @ makes spreadsheets evaluate the cell: prefix an apostrophe (OWASP CSV injection advice).
-  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 /** One line per site and document type with the count in each state; CRLF line ends (RFC 4180 §2). */
 export function matrixCsv(rows: readonly MatrixRow[], types: readonly { id: string; code: string; name: string }[]): string {
   const header = ["site_code", "site_name", "site_status", "document_type", "document_name", "required", ...itemStates];
-  const lines = [header.map(csvField).join(",")];
+  const lines = [csvRow(header)];
   const byId = new Map(types.map((t) => [t.id, t]));
   for (const r of rows) {
     for (const c of r.cells) {
       const t = byId.get(c.typeId);
       if (!t) continue;
-      lines.push([r.code, r.name, r.status, t.code, t.name, c.required ? "yes" : "no", ...itemStates.map((s) => c.counts[s])].map(csvField).join(","));
+      lines.push(csvRow([r.code, r.name, r.status, t.code, t.name, c.required ? "yes" : "no", ...itemStates.map((s) => c.counts[s])]));
     }
   }
   return lines.join("\r\n") + "\r\n";

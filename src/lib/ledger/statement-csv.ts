@@ -1,3 +1,4 @@
+import { csvRow } from "@/lib/csv";
 import { formatMinor } from "@/lib/money";
 import type { EarnedLine } from "@/lib/payment-schedule";
 import { describeLine, lineKindLabels, lineStateLabels } from "./line-labels";
@@ -6,9 +7,6 @@ import { describeLine, lineKindLabels, lineStateLabels } from "./line-labels";
 // line break are quoted, quotes doubled). Amounts in major units without grouping, so spreadsheets
 // read them as numbers; the currency is its own column.
 
-function field(value: string): string {
-  return /[",\r\n]/.test(value) ? `"${value.replaceAll('"', '""')}"` : value;
-}
 
 export const statementColumns = [
   "Line",
@@ -77,5 +75,5 @@ export function statementCsv(input: { siteCode: string; currency: string; from: 
   }
   const t = sumLines(input.lines);
   rows.push(["Total", "", `${input.siteCode} ${input.from} to ${input.to}, as of ${input.asOf}`, "", "", "", "", "", currency, amount(t.grossMinor), amount(t.overheadMinor), amount(t.holdbackMinor), amount(t.netMinor), amount(t.paidMinor), amount(t.outstandingMinor), ""]);
-  return rows.map((r) => r.map(field).join(",")).join("\r\n") + "\r\n";
+  return rows.map(csvRow).join("\r\n") + "\r\n";
 }

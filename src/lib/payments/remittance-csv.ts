@@ -1,3 +1,4 @@
+import { csvRow } from "@/lib/csv";
 import { formatMinor } from "@/lib/money";
 
 // Remittance advice as CSV (RFC 4180: CRLF line ends, fields with a comma, quote or line break
@@ -22,9 +23,6 @@ export interface RemittanceHeader {
   sentOn: string;
 }
 
-function field(value: string): string {
-  return /[",\r\n]/.test(value) ? `"${value.replaceAll('"', '""')}"` : value;
-}
 
 export const remittanceColumns = ["Study", "Site", "Run", "Transfer", "Line", "Kind", "Description", "Service date", "Due date", "Currency", "Amount"] as const;
 
@@ -49,5 +47,5 @@ export function remittanceCsv(header: RemittanceHeader, lines: readonly Remittan
   }
   if (total !== header.amountMinor) throw new Error(`Remittance lines sum to ${total}, the payment is ${header.amountMinor}`);
   rows.push([header.studyCode, header.siteCode, String(header.runNumber), header.transferReference, "TOTAL", "", "", "", "", header.currency, formatMinor(total, header.currency, { grouping: false, withCode: false })]);
-  return rows.map((r) => r.map(field).join(",")).join("\r\n") + "\r\n";
+  return rows.map(csvRow).join("\r\n") + "\r\n";
 }

@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import canonicalize from "canonicalize";
+import { canonicalJson } from "@/lib/canonical-json";
 
 // A payment run's content hash: SHA-256 of the RFC 8785 canonical JSON of its lines, so what the
 // approver approved is exactly what is sent. Amounts are decimal strings (JSON has no bigint).
@@ -15,9 +15,7 @@ export function canonicalRunContent(runId: string, lines: readonly RunHashLine[]
   const sorted = [...lines]
     .map((l) => ({ lineKey: l.lineKey, siteId: l.siteId, currency: l.currency, amountMinor: l.amountMinor.toString() }))
     .sort((a, b) => (a.siteId + "\u0000" + a.lineKey < b.siteId + "\u0000" + b.lineKey ? -1 : a.siteId + "\u0000" + a.lineKey > b.siteId + "\u0000" + b.lineKey ? 1 : 0));
-  const json = canonicalize({ run: runId, lines: sorted });
-  if (json === undefined) throw new Error("run content cannot be canonicalised");
-  return json;
+  return canonicalJson({ run: runId, lines: sorted });
 }
 
 export function hashRunContent(runId: string, lines: readonly RunHashLine[]): string {

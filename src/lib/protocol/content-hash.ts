@@ -1,7 +1,7 @@
 // SHA-256 of a protocol version's canonical content: what an investigator signs is bound to it.
 // Server-side (node:crypto).
 import { createHash } from "node:crypto";
-import { canonicalJson } from "./canonical-json";
+import { canonicalJson } from "@/lib/canonical-json";
 import type { VisitSchedule } from "./visit-schedule";
 
 export interface ProtocolContent {

@@ -4,7 +4,7 @@
 // (diffBlockWords: jsdiff's word tokens, whitespace kept exactly). Output serves an inline view and a side-by-side view.
 // Also diffVisitSchedules for the structured schedule of visits. Client-safe.
 import { diffArrays } from "diff";
-import { canonicalJson } from "./canonical-json";
+import { canonicalJson } from "@/lib/canonical-json";
 import { nodePlainText, topLevelBlocks } from "./plain-text";
 import { sanitizeProtocolDoc } from "./sanitize";
 import { blockSectionNumbers, listSections } from "./sections";

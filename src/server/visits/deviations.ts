@@ -1,5 +1,5 @@
 import "server-only";
-import Papa from "papaparse";
+import { toCsv, type CsvValue } from "@/lib/csv";
 import { and, desc, eq, gte, ilike, inArray, lte } from "drizzle-orm";
 import type { Tx } from "@/server/db/client";
 import { deviations, protocolVersions, sites, subjects, users, type Deviation } from "@/server/db/schema";
@@ -56,16 +56,11 @@ export async function listDeviations(tx: Tx, { studyId, siteIds, filter }: { stu
 }
 export type DeviationRow = Awaited<ReturnType<typeof listDeviations>>[number];
 
-// Cells starting with = + - @ are neutralised so a spreadsheet never runs them as formulas (OWASP CSV injection).
-const safeCell = (v: unknown) => {
-  const s = v === null || v === undefined ? "" : v instanceof Date ? v.toISOString() : String(v);
-  return /^[=+\-@\t\r]/.test(s) && !/^-\d+$/.test(s) ? `'${s}` : s;
-};
-
 export function deviationsToCsv(rows: DeviationRow[]): string {
   const header = ["site", "subject", "source", "category", "visit", "protocol_version", "occurred_on", "window_start", "window_end", "days_outside", "status", "description", "resolution", "reported_by"];
-  const data = rows.map((r) => [r.siteCode, r.subjectCode, r.source, r.category, r.visitCode, r.versionLabel, r.occurredOn, r.windowStart, r.windowEnd, r.daysOutside, r.status, r.description, r.resolution, r.reportedBy].map(safeCell));
-  return Papa.unparse({ fields: header, data }, { newline: "\r\n" });
+  const at = (v: unknown) => (v instanceof Date ? v.toISOString() : (v as CsvValue));
+  const data = rows.map((r) => [r.siteCode, r.subjectCode, r.source, r.category, r.visitCode, r.versionLabel, r.occurredOn, r.windowStart, r.windowEnd, r.daysOutside, r.status, r.description, r.resolution, r.reportedBy].map(at));
+  return toCsv(header, data);
 }
 
 /** A deviation reported by the site or the monitor (anything but a visit out of window). */

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { addDays, differenceInCalendarDays, format } from "date-fns";
 import { acknowledgementStatus, describeStatus, reminderDue, reminderFrom } from "@/lib/acknowledgements/state";
-import { csvCell, toCsv } from "@/lib/acknowledgements/csv";
+import { csvCell, toCsv } from "@/lib/csv";
 import { acknowledgementMeaning } from "@/lib/acknowledgements/meaning";
 
 const local = (iso: string) => new Date(Number(iso.slice(0, 4)), Number(iso.slice(5, 7)) - 1, Number(iso.slice(8, 10)));

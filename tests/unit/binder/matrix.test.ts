@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { buildMatrix, computeSiteBinder, csvField, filterMatrix, matrixCsv, type BinderType } from "@/lib/binder";
+import { buildMatrix, computeSiteBinder, filterMatrix, matrixCsv, type BinderType } from "@/lib/binder";
+import { csvCell } from "@/lib/csv";
 
 const types: BinderType[] = [
   { id: "t1", code: "investigator_agreement", name: "Signed agreement, final", holder: "site", appliesToRoles: [], requiredFrom: "start_up", expires: false },
@@ -51,8 +52,8 @@ describe("study matrix", () => {
   });
 
   it("escapes quotes and neutralises spreadsheet formulas", () => {
-    expect(csvField('say "hi"')).toBe('"say ""hi"""'); // RFC 4180 §2 rule 7
-    expect(csvField("=HYPERLINK(1)")).toBe("'=HYPERLINK(1)"); // OWASP CSV injection advice
-    expect(csvField(12)).toBe("12");
+    expect(csvCell('say "hi"')).toBe('"say ""hi"""'); // RFC 4180 §2 rule 7
+    expect(csvCell("=HYPERLINK(1)")).toBe("'=HYPERLINK(1)"); // OWASP CSV injection advice
+    expect(csvCell(12)).toBe("12");
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import canonicalize from "canonicalize";
-import { canonicalJson, CanonicalJsonError } from "@/lib/protocol/canonical-json";
+import { canonicalJson, CanonicalJsonError } from "@/lib/canonical-json";
 import { canonicalProtocolContent, hashProtocolContent } from "@/lib/protocol/content-hash";
 import { createHash } from "node:crypto";
 import { v1Doc, visitsV1 } from "./fixtures";

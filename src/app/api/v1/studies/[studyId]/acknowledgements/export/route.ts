@@ -3,7 +3,8 @@ import { apiRoute } from "@/server/api/route";
 import { studyParams } from "@/lib/api/schemas";
 import { matrixQuery } from "@/lib/acknowledgements/api-schemas";
 import { listAcknowledgementMatrix } from "@/server/acknowledgements/list-matrix";
-import { describeStatus, toCsv } from "@/lib/acknowledgements";
+import { describeStatus } from "@/lib/acknowledgements";
+import { toCsv } from "@/lib/csv";
 
 export const GET = apiRoute(
   { permission: "acknowledgement.read", params: studyParams, query: matrixQuery, siteFiltered: true, scope: ({ params, query }) => ({ studyId: params.studyId, siteId: query.siteId }) },

@@ -1,4 +1,6 @@
-// RFC 8785 JSON Canonicalization Scheme (JCS), our own implementation. Client-safe.
+// RFC 8785 JSON Canonicalization Scheme (JCS), our one implementation, used for protocol content
+// hashes, redline block signatures and payment-run hashes. Client-safe. Checked in tests against
+// the `canonicalize` package (kept as a test-only oracle).
 // §3.2.2.1 literals, §3.2.2.2 strings (JSON.stringify's escaping is exactly the RFC's:
 // \b \t \n \f \r \" \\ and \u00xx lower-case hex for other controls, everything else as is),
 // §3.2.2.3 numbers (ECMAScript Number::toString, -0 as 0, NaN/Infinity rejected),
