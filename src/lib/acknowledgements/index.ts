@@ -1,5 +1,4 @@
 export * from "./deadline";
 export * from "./state";
 export * from "./meaning";
-
 export * from "./links";

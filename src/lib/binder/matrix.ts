@@ -1,4 +1,4 @@
-import { csvRow } from "@/lib/csv";
+import { toCsv } from "@/lib/csv";
 import { emptyCounts, itemStateLabels, itemStates, type ItemState, type SiteBinder, type StateCounts } from "./readiness";
 
 // The study view: sites × document types, each cell counting the items in each state.
@@ -27,16 +27,16 @@ export function filterMatrix(rows: readonly MatrixRow[], { state, siteCode }: { 
 /** One line per site and document type with the count in each state; CRLF line ends (RFC 4180 §2). */
 export function matrixCsv(rows: readonly MatrixRow[], types: readonly { id: string; code: string; name: string }[]): string {
   const header = ["site_code", "site_name", "site_status", "document_type", "document_name", "required", ...itemStates];
-  const lines = [csvRow(header)];
+  const lines: (string | number)[][] = [];
   const byId = new Map(types.map((t) => [t.id, t]));
   for (const r of rows) {
     for (const c of r.cells) {
       const t = byId.get(c.typeId);
       if (!t) continue;
-      lines.push(csvRow([r.code, r.name, r.status, t.code, t.name, c.required ? "yes" : "no", ...itemStates.map((s) => c.counts[s])]));
+      lines.push([r.code, r.name, r.status, t.code, t.name, c.required ? "yes" : "no", ...itemStates.map((s) => c.counts[s])]);
     }
   }
-  return lines.join("\r\n") + "\r\n";
+  return toCsv(header, lines);
 }
 
 export const stateColumnLabels = itemStates.map((s) => ({ state: s, label: itemStateLabels[s] }));

@@ -1,12 +1,10 @@
-import { csvRow } from "@/lib/csv";
+import { toCsv } from "@/lib/csv";
 import { formatMinor } from "@/lib/money";
 import type { EarnedLine } from "@/lib/payment-schedule";
 import { describeLine, lineKindLabels, lineStateLabels } from "./line-labels";
 
-// A site's statement for a period as CSV (RFC 4180: CRLF line ends, fields with a comma, quote or
-// line break are quoted, quotes doubled). Amounts in major units without grouping, so spreadsheets
-// read them as numbers; the currency is its own column.
-
+// A site's statement for a period as CSV (the shared writer in src/lib/csv). Amounts in major units
+// without grouping, so spreadsheets read them as numbers; the currency is its own column.
 
 export const statementColumns = [
   "Line",
@@ -52,7 +50,7 @@ export function sumLines(lines: readonly EarnedLine[]): StatementTotals {
 export function statementCsv(input: { siteCode: string; currency: string; from: string; to: string; asOf: string; lines: readonly EarnedLine[] }): string {
   const { currency } = input;
   const amount = (m: bigint) => formatMinor(m, currency, { grouping: false, withCode: false });
-  const rows: string[][] = [[...statementColumns]];
+  const rows: string[][] = [];
   for (const l of input.lines) {
     rows.push([
       l.key,
@@ -75,5 +73,5 @@ export function statementCsv(input: { siteCode: string; currency: string; from: 
   }
   const t = sumLines(input.lines);
   rows.push(["Total", "", `${input.siteCode} ${input.from} to ${input.to}, as of ${input.asOf}`, "", "", "", "", "", currency, amount(t.grossMinor), amount(t.overheadMinor), amount(t.holdbackMinor), amount(t.netMinor), amount(t.paidMinor), amount(t.outstandingMinor), ""]);
-  return rows.map(csvRow).join("\r\n") + "\r\n";
+  return toCsv(statementColumns, rows);
 }

@@ -1,8 +1,8 @@
-import { csvRow } from "@/lib/csv";
+import { toCsv } from "@/lib/csv";
 import { formatMinor } from "@/lib/money";
 
-// Remittance advice as CSV (RFC 4180: CRLF line ends, fields with a comma, quote or line break
-// quoted, quotes doubled). Amounts in major units without grouping so spreadsheets read numbers.
+// Remittance advice as CSV (the shared writer in src/lib/csv). Amounts in major units without
+// grouping so spreadsheets read numbers.
 
 export interface RemittanceLine {
   lineKey: string;
@@ -23,11 +23,10 @@ export interface RemittanceHeader {
   sentOn: string;
 }
 
-
 export const remittanceColumns = ["Study", "Site", "Run", "Transfer", "Line", "Kind", "Description", "Service date", "Due date", "Currency", "Amount"] as const;
 
 export function remittanceCsv(header: RemittanceHeader, lines: readonly RemittanceLine[]): string {
-  const rows: string[][] = [[...remittanceColumns]];
+  const rows: string[][] = [];
   let total = 0n;
   for (const l of lines) {
     total += l.amountMinor;
@@ -47,5 +46,5 @@ export function remittanceCsv(header: RemittanceHeader, lines: readonly Remittan
   }
   if (total !== header.amountMinor) throw new Error(`Remittance lines sum to ${total}, the payment is ${header.amountMinor}`);
   rows.push([header.studyCode, header.siteCode, String(header.runNumber), header.transferReference, "TOTAL", "", "", "", "", header.currency, formatMinor(total, header.currency, { grouping: false, withCode: false })]);
-  return rows.map(csvRow).join("\r\n") + "\r\n";
+  return toCsv(remittanceColumns, rows);
 }
